@@ -1,0 +1,42 @@
+#include "bandstack/core/error.hpp"
+
+#include <sstream>
+
+namespace bandstack {
+
+std::string InputPlace::describe() const {
+  std::ostringstream out;
+  std::string sep;
+  if (!file.empty()) {
+    out << file;
+    if (line) {
+      out << ':' << *line;
+      if (column_in_line) out << ':' << *column_in_line;
+    }
+    sep = ": ";
+  }
+  if (!item.empty()) {
+    out << sep << '\'' << item << '\'';
+    sep = " ";
+  }
+  if (column_index || level) {
+    out << sep << '(';
+    if (column_index) out << "column " << *column_index;
+    if (column_index && level) out << ", ";
+    if (level) out << "level " << *level;
+    out << ')';
+  }
+  return out.str();
+}
+
+std::string InputError::compose(const InputPlace& place, const std::string& message) {
+  const std::string where = place.describe();
+  return where.empty() ? message : where + ": " + message;
+}
+
+void assertion_failed(const char* expression, const char* file, int line) {
+  throw InternalError(std::string("internal error: assertion '") + expression + "' failed at " + file + ':' +
+                      std::to_string(line) + " (please report this as a bug)");
+}
+
+} // namespace bandstack
