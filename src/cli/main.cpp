@@ -1,2 +1,95 @@
-// Placeholder while the command line is written; replaced in the same change.
-int main() { return 0; }
+// The bandstack command line: parses arguments and dispatches to the library. Nothing else.
+#include <cstdio>
+#include <exception>
+#include <filesystem>
+#include <string>
+
+#include <CLI/CLI.hpp>
+#include <fmt/format.h>
+
+#include "bandstack/batch/run.hpp"
+#include "bandstack/core/error.hpp"
+#include "bandstack/core/version.hpp"
+#include "bandstack/io/study.hpp"
+
+namespace {
+
+struct Options {
+  std::string study_path;
+  std::string out_dir;
+  std::size_t threads = 0;
+  bool quiet = false;
+};
+
+void add_run_options(CLI::App* command, Options& o) {
+  command->add_option("--out", o.out_dir, "Folder for the result file (default: as the study says)");
+  command->add_option("--threads", o.threads, "Worker threads (default: all cores)")->check(CLI::Range(1, 4096));
+}
+
+int run(const bandstack::io::Study& study, const Options& o) {
+  bandstack::batch::RunOptions options;
+  options.threads = o.threads;
+  options.output_directory = o.out_dir;
+  const bandstack::batch::RunOutcome outcome = bandstack::batch::run_study(study, options);
+  if (!o.quiet) std::fputs(bandstack::batch::format_summary(outcome).c_str(), stdout);
+  return 0;
+}
+
+int dispatch(int argc, char** argv) {
+  CLI::App app{"bandstack: spectral-band radiative transfer through many atmospheric columns.\n" +
+               std::string(bandstack::caution_text())};
+  app.set_version_flag("--version", std::string("bandstack ") + std::string(bandstack::version()));
+  app.require_subcommand(1);
+  app.fallthrough(); // global flags such as --quiet may also follow the command
+  Options o;
+  app.add_flag("-q,--quiet", o.quiet, "Print nothing but errors");
+
+  CLI::App* demo = app.add_subcommand("demo", "Run the built-in demo study (examples/tarrow_sound_demo.toml)");
+  add_run_options(demo, o);
+  CLI::App* run_cmd = app.add_subcommand("run", "Run a study file");
+  run_cmd->add_option("study", o.study_path, "Study file (TOML)")->required();
+  add_run_options(run_cmd, o);
+  CLI::App* check = app.add_subcommand("check", "Validate a study file without running it");
+  check->add_option("study", o.study_path, "Study file (TOML)")->required();
+
+  try {
+    app.parse(argc, argv);
+  } catch (const CLI::ParseError& e) {
+    const int code = app.exit(e);
+    return code == 0 ? 0 : static_cast<int>(bandstack::ExitCode::bad_input);
+  }
+
+  if (*demo) {
+    bandstack::io::Study study = bandstack::io::parse_study(bandstack::io::demo_study_text(), "built-in demo study");
+    study.source_file.clear();
+    if (o.out_dir.empty()) o.out_dir = "bandstack-demo";
+    std::filesystem::create_directories(o.out_dir);
+    return run(study, o);
+  }
+  if (*run_cmd) return run(bandstack::io::load_study(o.study_path), o);
+  if (*check) {
+    const bandstack::io::Study study = bandstack::io::load_study(o.study_path);
+    const auto columns = bandstack::batch::build_columns(study);
+    if (!o.quiet)
+      std::printf("%s: ok (%zu columns, %zu layers each)\n", o.study_path.c_str(), columns.size(), study.grid.layers);
+    return 0;
+  }
+  return static_cast<int>(bandstack::ExitCode::bad_input);
+}
+
+} // namespace
+
+int main(int argc, char** argv) {
+  try {
+    return dispatch(argc, argv);
+  } catch (const bandstack::Error& e) {
+    std::fprintf(stderr, "bandstack: error: %s\n", e.what());
+    return static_cast<int>(e.exit_code());
+  } catch (const std::filesystem::filesystem_error& e) {
+    std::fprintf(stderr, "bandstack: error: %s\n", e.what());
+    return static_cast<int>(bandstack::ExitCode::bad_input);
+  } catch (const std::exception& e) {
+    std::fprintf(stderr, "bandstack: internal error: %s\n", e.what());
+    return static_cast<int>(bandstack::ExitCode::internal_error);
+  }
+}

@@ -1,0 +1,42 @@
+#pragma once
+// Running a study: build every column, compute it (in parallel, deterministically), write the result.
+#include <cstddef>
+#include <filesystem>
+#include <string>
+#include <vector>
+
+#include "bandstack/batch/column_result.hpp"
+#include "bandstack/io/study.hpp"
+
+namespace bandstack::batch {
+
+struct RunOptions {
+  std::size_t threads = 0;                   // worker threads; 0 = all hardware threads
+  std::filesystem::path output_directory;    // if not empty, the output file is written here instead
+};
+
+// Builds and validates every column of the study (InputError names the column on failure).
+[[nodiscard]] std::vector<atmosphere::Column> build_columns(const io::Study& study);
+
+// Computes every column. Columns are independent and each result goes to its own slot, so the
+// results are bit-identical for any thread count.
+[[nodiscard]] std::vector<ColumnResult> compute_columns(const io::Study& study,
+                                                        const std::vector<atmosphere::Column>& columns,
+                                                        std::size_t threads);
+
+// Where the study's output will be written under these options.
+[[nodiscard]] std::filesystem::path output_path(const io::Study& study, const RunOptions& options);
+
+struct RunOutcome {
+  std::filesystem::path output_file;  // the file written
+  std::vector<ColumnResult> results;  // one per column, in study order
+};
+
+// The whole job: checks the output folder is writable, builds, computes and writes the result file
+// atomically.
+RunOutcome run_study(const io::Study& study, const RunOptions& options);
+
+// A short plain-text table of the main results (one line per column) for the terminal.
+[[nodiscard]] std::string format_summary(const RunOutcome& outcome);
+
+} // namespace bandstack::batch

@@ -1,0 +1,49 @@
+#pragma once
+// A study: everything one run needs, read from a TOML study file (format: docs/study-file.md).
+#include <filesystem>
+#include <string>
+#include <string_view>
+#include <vector>
+
+#include "bandstack/atmosphere/grid.hpp"
+#include "bandstack/io/demo_study.hpp"
+#include "bandstack/atmosphere/profiles.hpp"
+#include "bandstack/solvers/grey.hpp"
+
+namespace bandstack::io {
+
+// One column of the study: a built-in profile with its settings.
+struct ColumnSpec {
+  std::string name;
+  atmosphere::ProfileSettings settings;
+};
+
+enum class AngleMethod { gauss, diffusivity };
+
+struct LongwaveSettings {
+  solvers::GreyOptics grey;                 // constant mass absorption coefficient per gas (m2 kg-1)
+  AngleMethod angle_method = AngleMethod::gauss;
+  std::size_t gauss_angles = 3;             // 1..8 when angle_method is gauss
+  double diffusivity_factor = 1.66;         // when angle_method is diffusivity
+};
+
+struct Study {
+  std::string title;
+  std::string source_file;                  // path the study was read from ("" for built-in)
+  std::string source_text;                  // full TOML text, stored in the output for provenance
+  atmosphere::GridSpec grid;
+  std::vector<ColumnSpec> columns;
+  LongwaveSettings longwave;
+  std::filesystem::path output_file;        // absolute, or relative to the working directory
+};
+
+// Parses a study from TOML text. file_name is used in messages and to resolve a relative output
+// path against the study file's folder. Every problem found (syntax, unknown keys, wrong types,
+// values out of range) is collected and reported at once in one InputError, each with
+// file:line:column and the key.
+[[nodiscard]] Study parse_study(std::string_view text, const std::string& file_name);
+
+// Reads and parses a study file; a missing or unreadable file is a FileError.
+[[nodiscard]] Study load_study(const std::filesystem::path& path);
+
+} // namespace bandstack::io

@@ -1,0 +1,94 @@
+#include "bandstack/batch/run.hpp"
+
+#include <fmt/format.h>
+#include <tbb/parallel_for.h>
+#include <tbb/task_arena.h>
+
+#include "bandstack/core/error.hpp"
+#include "bandstack/io/atomic_output.hpp"
+#include "bandstack/io/result_writer.hpp"
+#include "bandstack/solvers/angular_quadrature.hpp"
+
+namespace bandstack::batch {
+
+namespace {
+
+solvers::AngularQuadrature quadrature_for(const io::LongwaveSettings& lw) {
+  return lw.angle_method == io::AngleMethod::gauss ? solvers::gauss_quadrature(static_cast<int>(lw.gauss_angles))
+                                                   : solvers::diffusivity_quadrature(lw.diffusivity_factor);
+}
+
+std::string describe_longwave(const io::LongwaveSettings& lw) {
+  std::string text = "grey: constant mass absorption coefficients (m2 kg-1)";
+  for (Gas g : all_gases) text += fmt::format(" {}={}", gas_name(g), lw.grey.mass_absorption_m2_kg[index(g)]);
+  text += lw.angle_method == io::AngleMethod::gauss ? fmt::format("; {}-point Gauss angular quadrature", lw.gauss_angles)
+                                                    : fmt::format("; diffusivity factor {}", lw.diffusivity_factor);
+  return text + "; source linear in optical depth within layers";
+}
+
+} // namespace
+
+std::vector<atmosphere::Column> build_columns(const io::Study& study) {
+  std::vector<atmosphere::Column> columns;
+  columns.reserve(study.columns.size());
+  for (std::size_t i = 0; i < study.columns.size(); ++i) {
+    const io::ColumnSpec& spec = study.columns[i];
+    try {
+      columns.push_back(atmosphere::make_column(spec.settings, study.grid, spec.name));
+    } catch (const InputError& e) {
+      throw InputError(InputPlace{study.source_file, fmt::format("columns[{}] \"{}\"", i, spec.name), {}, {},
+                                  static_cast<long>(i), {}},
+                       e.what());
+    }
+  }
+  return columns;
+}
+
+std::vector<ColumnResult> compute_columns(const io::Study& study, const std::vector<atmosphere::Column>& columns,
+                                          std::size_t threads) {
+  const solvers::AngularQuadrature angles = quadrature_for(study.longwave);
+  std::vector<ColumnResult> results(columns.size());
+  auto work = [&] {
+    tbb::parallel_for(std::size_t{0}, columns.size(), [&](std::size_t c) {
+      results[c].column = columns[c];
+      results[c].longwave = solvers::solve_grey_longwave(columns[c], study.longwave.grey, angles);
+    });
+  };
+  if (threads == 0) {
+    work();
+  } else {
+    tbb::task_arena arena(static_cast<int>(threads));
+    arena.execute(work);
+  }
+  return results;
+}
+
+std::filesystem::path output_path(const io::Study& study, const RunOptions& options) {
+  if (options.output_directory.empty()) return study.output_file;
+  return options.output_directory / study.output_file.filename();
+}
+
+RunOutcome run_study(const io::Study& study, const RunOptions& options) {
+  const std::filesystem::path path = output_path(study, options);
+  io::check_output_folder(path); // fail before the work, not after
+  const std::vector<atmosphere::Column> columns = build_columns(study);
+  const std::vector<ColumnResult> results = compute_columns(study, columns, options.threads);
+  io::RunInfo info;
+  info.title = study.title;
+  info.study_file = study.source_file;
+  info.study_text = study.source_text;
+  info.command_line = study.source_file.empty() ? "bandstack demo" : "bandstack run " + study.source_file;
+  info.longwave_method = describe_longwave(study.longwave);
+  io::write_result_file(path, results, info);
+  return RunOutcome{path, results};
+}
+
+std::string format_summary(const RunOutcome& outcome) {
+  std::string text = fmt::format("{:<28} {:>10} {:>10} {:>12}\n", "column", "T_surf K", "OLR W/m2", "LW_down W/m2");
+  for (const ColumnResult& r : outcome.results)
+    text += fmt::format("{:<28} {:>10.2f} {:>10.2f} {:>12.2f}\n", r.column.name, r.column.surface_temperature_k,
+                        r.longwave.olr(), r.longwave.surface_down());
+  return text + fmt::format("wrote {}\n", outcome.output_file.string());
+}
+
+} // namespace bandstack::batch

@@ -1,0 +1,141 @@
+#include "bandstack/io/study.hpp"
+
+#include <fstream>
+#include <set>
+#include <sstream>
+
+#include <fmt/format.h>
+
+#include "bandstack/core/error.hpp"
+#include "bandstack/core/units.hpp"
+#include "io/toml_reader.hpp"
+
+namespace bandstack::io {
+
+namespace {
+
+using detail::TomlReader;
+
+void read_grid(TomlReader& r, const toml::table& root, atmosphere::GridSpec& grid) {
+  const toml::table* t = r.table(root, "", "grid");
+  if (!t) return;
+  r.reject_unknown_keys(*t, "grid", {"layers", "top_pressure_hpa", "surface_pressure_hpa", "spacing"});
+  if (auto v = r.integer(*t, "grid", "layers", 1, 100000)) grid.layers = static_cast<std::size_t>(*v);
+  if (auto v = r.number(*t, "grid", "top_pressure_hpa", 1e-6, 1e6)) grid.top_pressure_pa = units::hpa_to_pa(*v);
+  if (auto v = r.number(*t, "grid", "surface_pressure_hpa", 1e-6, 1e6)) grid.surface_pressure_pa = units::hpa_to_pa(*v);
+  if (auto v = r.string(*t, "grid", "spacing")) {
+    if (*v == "log_pressure") grid.spacing = atmosphere::Spacing::log_pressure;
+    else if (*v == "linear_pressure") grid.spacing = atmosphere::Spacing::linear_pressure;
+    else r.problem(t->get("spacing")->source(), "grid.spacing", "must be \"log_pressure\" or \"linear_pressure\", not \"" + *v + "\"");
+  }
+  if (grid.top_pressure_pa >= grid.surface_pressure_pa)
+    r.problem(t->source(), "grid", "top_pressure_hpa must be below surface_pressure_hpa");
+}
+
+void read_longwave(TomlReader& r, const toml::table& root, LongwaveSettings& lw) {
+  const toml::table* t = r.table(root, "", "longwave");
+  if (!t) return;
+  r.reject_unknown_keys(*t, "longwave",
+                        {"method", "angular_quadrature", "gauss_angles", "diffusivity_factor", "grey_mass_absorption_m2_per_kg"});
+  if (auto v = r.string(*t, "longwave", "method"); v && *v != "grey")
+    r.problem(t->get("method")->source(), "longwave.method", "must be \"grey\" (the only longwave method so far), not \"" + *v + "\"");
+  if (auto v = r.string(*t, "longwave", "angular_quadrature")) {
+    if (*v == "gauss") lw.angle_method = AngleMethod::gauss;
+    else if (*v == "diffusivity") lw.angle_method = AngleMethod::diffusivity;
+    else r.problem(t->get("angular_quadrature")->source(), "longwave.angular_quadrature", "must be \"gauss\" or \"diffusivity\", not \"" + *v + "\"");
+  }
+  if (auto v = r.integer(*t, "longwave", "gauss_angles", 1, 8)) lw.gauss_angles = static_cast<std::size_t>(*v);
+  if (auto v = r.number(*t, "longwave", "diffusivity_factor", 1.0, 2.0)) lw.diffusivity_factor = *v;
+  const std::string prefix = "longwave.grey_mass_absorption_m2_per_kg";
+  if (const toml::table* k = r.table(*t, "longwave", "grey_mass_absorption_m2_per_kg")) {
+    std::set<std::string> names;
+    for (Gas g : all_gases) names.insert(std::string(gas_name(g)));
+    r.reject_unknown_keys(*k, prefix, names);
+    for (Gas g : all_gases)
+      if (auto v = r.number(*k, prefix, std::string(gas_name(g)), 0.0, 1e6)) lw.grey.mass_absorption_m2_kg[index(g)] = *v;
+  }
+}
+
+ColumnSpec read_column(TomlReader& r, const toml::table& t, std::size_t i) {
+  const std::string prefix = fmt::format("columns[{}]", i);
+  r.reject_unknown_keys(t, prefix,
+                        {"name", "profile", "surface_temperature_k", "surface_relative_humidity", "stratospheric_h2o_ppmv",
+                         "co2_ppmv", "ch4_ppmv", "n2o_ppmv", "ozone_scale", "surface_emissivity", "surface_albedo"});
+  ColumnSpec spec;
+  spec.name = r.string(t, prefix, "name").value_or(fmt::format("column_{}", i));
+  atmosphere::ProfileSettings& s = spec.settings;
+  if (auto v = r.string(t, prefix, "profile")) {
+    if (auto p = atmosphere::profile_from_name(*v)) s.profile = *p;
+    else r.problem(t.get("profile")->source(), prefix + ".profile",
+                   "unknown built-in profile \"" + *v + "\" (known: us_standard_1976, tropical, midlatitude_summer, high_latitude_winter)");
+  } else {
+    r.problem(t.source(), prefix + ".profile", "missing: every column needs a built-in profile");
+  }
+  if (auto v = r.number(t, prefix, "surface_temperature_k", 150.0, 330.0)) s.surface_temperature_k = *v;
+  if (auto v = r.number(t, prefix, "surface_relative_humidity", 0.0, 1.0)) s.surface_relative_humidity = *v;
+  if (auto v = r.number(t, prefix, "stratospheric_h2o_ppmv", 0.0, 1e4)) s.stratospheric_h2o_mole_fraction = units::ppmv_to_mole_fraction(*v);
+  if (auto v = r.number(t, prefix, "co2_ppmv", 0.0, 1e5)) s.co2_mole_fraction = units::ppmv_to_mole_fraction(*v);
+  if (auto v = r.number(t, prefix, "ch4_ppmv", 0.0, 1e5)) s.ch4_mole_fraction = units::ppmv_to_mole_fraction(*v);
+  if (auto v = r.number(t, prefix, "n2o_ppmv", 0.0, 1e5)) s.n2o_mole_fraction = units::ppmv_to_mole_fraction(*v);
+  if (auto v = r.number(t, prefix, "ozone_scale", 0.0, 100.0)) s.ozone_scale = *v;
+  if (auto v = r.number(t, prefix, "surface_emissivity", 0.0, 1.0)) s.surface_emissivity = *v;
+  if (auto v = r.number(t, prefix, "surface_albedo", 0.0, 1.0)) s.surface_albedo = *v;
+  return spec;
+}
+
+} // namespace
+
+Study parse_study(std::string_view text, const std::string& file_name) {
+  toml::table root;
+  try {
+    root = toml::parse(text, file_name);
+  } catch (const toml::parse_error& e) {
+    const auto& where = e.source().begin;
+    throw InputError(fmt::format("{}:{}:{}: TOML syntax error: {}", file_name, where.line, where.column, e.description()));
+  }
+  TomlReader r(file_name);
+  r.reject_unknown_keys(root, "", {"title", "grid", "longwave", "output", "columns"});
+
+  Study study;
+  study.source_file = file_name;
+  study.source_text = std::string(text);
+  study.title = r.string(root, "", "title").value_or("");
+  read_grid(r, root, study.grid);
+  read_longwave(r, root, study.longwave);
+
+  std::string output_name = "bandstack_result.nc";
+  if (const toml::table* t = r.table(root, "", "output")) {
+    r.reject_unknown_keys(*t, "output", {"file"});
+    if (auto v = r.string(*t, "output", "file")) {
+      if (v->empty()) r.problem(t->get("file")->source(), "output.file", "must not be empty");
+      else output_name = *v;
+    }
+  }
+  // A relative output path is taken relative to the folder of the study file.
+  std::filesystem::path out(output_name);
+  if (out.is_relative() && !file_name.empty()) out = std::filesystem::path(file_name).parent_path() / out;
+  study.output_file = out;
+
+  const auto tables = r.table_array(root, "", "columns");
+  if (tables.empty() && !root.get("columns")) r.problem("no columns: add at least one [[columns]] table");
+  std::set<std::string> seen;
+  for (std::size_t i = 0; i < tables.size(); ++i) {
+    ColumnSpec spec = read_column(r, *tables[i], i);
+    if (!seen.insert(spec.name).second)
+      r.problem(tables[i]->source(), fmt::format("columns[{}].name", i), "duplicate column name \"" + spec.name + "\"");
+    study.columns.push_back(std::move(spec));
+  }
+  r.throw_if_problems();
+  return study;
+}
+
+Study load_study(const std::filesystem::path& path) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) throw FileError(path.string(), "cannot open the study file for reading");
+  std::ostringstream text;
+  text << in.rdbuf();
+  if (in.bad()) throw FileError(path.string(), "error while reading the study file");
+  return parse_study(text.str(), path.string());
+}
+
+} // namespace bandstack::io

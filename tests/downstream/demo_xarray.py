@@ -1,0 +1,106 @@
+"""Downstream check: the demo result opened with xarray (Debian python3-xarray) and ncdump.
+
+Checks names, units and CF attributes of the variables (naming.md), that the upward longwave flux at
+the top level equals `olr`, that the file decodes as CF, and that 1 and 2 threads give identical numbers.
+"""
+import argparse
+import os
+import shutil
+import subprocess
+import sys
+
+import numpy as np
+import xarray as xr
+
+EXPECTED = {
+    # name: (units, CF standard_name or None, dimensions)
+    "pressure_level": ("Pa", "air_pressure", ("column", "level")),
+    "temperature_level": ("K", "air_temperature", ("column", "level")),
+    "pressure_layer": ("Pa", "air_pressure", ("column", "layer")),
+    "temperature_layer": ("K", "air_temperature", ("column", "layer")),
+    "lw_flux_up": ("W m-2", "upwelling_longwave_flux_in_air", ("column", "level")),
+    "lw_flux_down": ("W m-2", "downwelling_longwave_flux_in_air", ("column", "level")),
+    "lw_heating_rate": ("K day-1", "tendency_of_air_temperature_due_to_longwave_heating", ("column", "layer")),
+    "olr": ("W m-2", "toa_outgoing_longwave_flux", ("column",)),
+    "surface_lw_flux_down": ("W m-2", "surface_downwelling_longwave_flux_in_air", ("column",)),
+    "surface_temperature": ("K", "surface_temperature", ("column",)),
+    "co2_mole_fraction": ("mol mol-1", "mole_fraction_of_carbon_dioxide_in_air", ("column", "layer")),
+    "specific_humidity": ("kg kg-1", "specific_humidity", ("column", "layer")),
+    "h2o_mole_fraction": ("mol mol-1", None, ("column", "layer")),
+}
+
+failures = []
+checks = [0]
+
+
+def check(condition, message):
+    checks[0] += 1
+    if not condition:
+        failures.append(message)
+    return condition
+
+
+def run_demo(exe, out, threads):
+    os.makedirs(out, exist_ok=True)
+    subprocess.run([exe, "demo", "--quiet", "--threads", str(threads), "--out", out], check=True)
+    return os.path.join(out, "tarrow_sound_demo.nc")
+
+
+def main():
+    parser = argparse.ArgumentParser()
+    parser.add_argument("--exe", required=True)
+    parser.add_argument("--tools", required=False)
+    parser.add_argument("--workdir", required=True)
+    args = parser.parse_args()
+    shutil.rmtree(args.workdir, ignore_errors=True)
+
+    path1 = run_demo(args.exe, os.path.join(args.workdir, "t1"), 1)
+    path2 = run_demo(args.exe, os.path.join(args.workdir, "t2"), 2)
+
+    ds = xr.open_dataset(path1)  # decode_cf=True by default
+    check(ds.attrs.get("Conventions") == "CF-1.8", "Conventions attribute")
+    check("research tool" in ds.attrs.get("comment", ""), "caution line in the comment attribute")
+    check("[[columns]]" in ds.attrs.get("study_text", ""), "study text stored")
+    for name, (units, standard_name, dims) in EXPECTED.items():
+        if not check(name in ds.variables, f"variable {name} missing"):
+            continue
+        var = ds[name]
+        check(var.attrs.get("units") == units, f"{name}: units {var.attrs.get('units')!r}, expected {units!r}")
+        check(var.attrs.get("standard_name") == standard_name,
+              f"{name}: standard_name {var.attrs.get('standard_name')!r}, expected {standard_name!r}")
+        check(var.dims == dims, f"{name}: dims {var.dims}, expected {dims}")
+        check(bool(np.all(np.isfinite(var.values))), f"{name}: non-finite values")
+    # column_name is a coordinate: xarray decodes it through the `coordinates` attribute.
+    check("column_name" in ds.coords, "column_name is a coordinate")
+    names = [n.decode() if isinstance(n, bytes) else str(n) for n in ds["column_name"].values]
+    check("warm_pool_buoy" in names, f"column names {names}")
+    # The upward flux at the top level is the OLR (level 0 is the top of the atmosphere).
+    check(np.array_equal(ds["lw_flux_up"].isel(level=0).values, ds["olr"].values), "lw_flux_up at level 0 == olr")
+    check(bool(np.all(np.diff(ds["pressure_level"].values, axis=1) > 0)), "pressure increases with level index")
+    # Sanity of a physical result with a wide, well-known bound: Earth's OLR lies roughly between
+    # 150 and 330 W m-2 for any clear column (satellite climatologies, e.g. Loeb et al. 2018, J. Climate 31).
+    olr = ds["olr"].values
+    check(bool(np.all((olr > 150) & (olr < 330))), f"OLR out of Earth-like range: {olr}")
+    # Doubled CO2 lowers OLR in the otherwise identical column (greenhouse forcing is positive).
+    i1 = names.index("reference_1976")
+    i2 = names.index("reference_1976_doubled_co2")
+    check(olr[i2] < olr[i1], f"doubled CO2 should lower OLR: {olr[i1]} -> {olr[i2]}")
+
+    # Bit-identical numbers for 1 and 2 threads.
+    ds2 = xr.open_dataset(path2)
+    for name in ds.data_vars:
+        if np.issubdtype(ds[name].dtype, np.number):
+            check(np.array_equal(ds[name].values, ds2[name].values), f"{name} differs between 1 and 2 threads")
+
+    # ncdump (netcdf-bin) reads the header.
+    header = subprocess.run(["ncdump", "-h", path1], check=True, capture_output=True, text=True).stdout
+    check("lw_flux_up(column, level)" in header, "ncdump -h shows lw_flux_up(column, level)")
+
+    for f in failures:
+        print("FAIL:", f)
+    print(f"demo_xarray: {checks[0] - len(failures)} passed, {len(failures)} failed")
+    return 1 if failures else 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())
