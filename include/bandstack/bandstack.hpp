@@ -14,6 +14,7 @@
 
 #include "bandstack/solvers/angular_quadrature.hpp"
 #include "bandstack/solvers/grey.hpp"
+#include "bandstack/solvers/longwave_result.hpp"
 #include "bandstack/solvers/heating.hpp"
 #include "bandstack/solvers/longwave.hpp"
 

@@ -77,6 +77,50 @@ const char* gas_standard_name(Gas g) {
   return nullptr;
 }
 
+// Longwave results by band: a CF coordinate `band_lw` (band centre, cm-1) with bounds, and the
+// by-band fluxes and heating rates.
+void write_longwave_bands(NcFile& file, std::span<const batch::ColumnResult> results, const NcDim& column,
+                          const NcDim& level, const NcDim& layer) {
+  const solvers::LongwaveResult& first = results.front().longwave;
+  const std::size_t n_band = first.band_count();
+  const std::size_t n_level = level.getSize();
+  const std::size_t n_layer = layer.getSize();
+  const NcDim band = file.addDim("band_lw", n_band);
+  const NcDim bounds = file.addDim("bounds", 2);
+  std::vector<double> centre(n_band), edges(2 * n_band);
+  for (std::size_t b = 0; b < n_band; ++b) {
+    centre[b] = 0.5 * (first.band_lower_cm1[b] + first.band_upper_cm1[b]);
+    edges[2 * b] = first.band_lower_cm1[b];
+    edges[2 * b + 1] = first.band_upper_cm1[b];
+  }
+  NcVar coord = file.addVar("band_lw", netCDF::ncDouble, band);
+  coord.putAtt("units", "cm-1");
+  coord.putAtt("long_name", "centre wavenumber of the longwave band");
+  coord.putAtt("bounds", "band_lw_bounds");
+  coord.putVar(centre.data());
+  NcVar bound = file.addVar("band_lw_bounds", netCDF::ncDouble, {band, bounds});
+  bound.putAtt("units", "cm-1");
+  bound.putAtt("long_name", "lower and upper wavenumber of the longwave band");
+  bound.putVar(edges.data());
+
+  std::vector<double> up, down, heating;
+  for (std::size_t c = 0; c < results.size(); ++c) {
+    const solvers::LongwaveResult& lw = results[c].longwave;
+    if (lw.band_lower_cm1 != first.band_lower_cm1 || lw.band_upper_cm1 != first.band_upper_cm1)
+      throw InternalError("all columns of one result file must use the same longwave bands");
+    BANDSTACK_ASSERT(lw.flux_up_by_band.size() == n_band * n_level && lw.heating_rate_by_band.size() == n_band * n_layer);
+    up.insert(up.end(), lw.flux_up_by_band.begin(), lw.flux_up_by_band.end());
+    down.insert(down.end(), lw.flux_down_by_band.begin(), lw.flux_down_by_band.end());
+    heating.insert(heating.end(), lw.heating_rate_by_band.begin(), lw.heating_rate_by_band.end());
+  }
+  add_variable(file, "lw_flux_up_by_band", {column, band, level}, {"W m-2", "upwelling longwave flux in each band", nullptr})
+      .putVar(up.data());
+  add_variable(file, "lw_flux_down_by_band", {column, band, level}, {"W m-2", "downwelling longwave flux in each band", nullptr})
+      .putVar(down.data());
+  add_variable(file, "lw_heating_rate_by_band", {column, band, layer}, {"K day-1", "longwave radiative heating rate in each band", nullptr})
+      .putVar(heating.data());
+}
+
 void write_contents(NcFile& file, std::span<const batch::ColumnResult> results, const RunInfo& info) {
   const std::size_t n_columns = results.size();
   const std::size_t n_layers = results.front().column.layer_count();
@@ -132,6 +176,8 @@ void write_contents(NcFile& file, std::span<const batch::ColumnResult> results, 
   put_profile(add_variable(file, "lw_heating_rate", per_layer,
                            {"K day-1", "longwave radiative heating rate", "tendency_of_air_temperature_due_to_longwave_heating"}),
               results, n_layers, [](const R& r) -> const auto& { return r.longwave.heating_rate_k_day; });
+
+  if (results.front().longwave.band_count() > 0) write_longwave_bands(file, results, column, level, layer);
 
   const std::vector<NcDim> scalar{column};
   put_per_column(add_variable(file, "olr", scalar, {"W m-2", "outgoing longwave radiation at the top of the atmosphere", "toa_outgoing_longwave_flux"}),

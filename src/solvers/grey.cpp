@@ -54,16 +54,6 @@ double grey_source_w_m2_sr(double t_k) noexcept {
   return constants::stefan_boltzmann_w_m2_k4 * t2 * t2 / constants::pi;
 }
 
-double LongwaveResult::olr() const {
-  BANDSTACK_ASSERT(!flux_up.empty());
-  return flux_up.front();
-}
-
-double LongwaveResult::surface_down() const {
-  BANDSTACK_ASSERT(!flux_down.empty());
-  return flux_down.back();
-}
-
 LongwaveResult solve_grey_longwave(const atmosphere::Column& column, const GreyOptics& optics,
                                    const AngularQuadrature& angles) {
   const std::vector<double> tau = grey_optical_depth(column, optics); // validates column and optics

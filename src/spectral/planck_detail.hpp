@@ -16,9 +16,10 @@ inline constexpr double second_radiation_m_k =
     constants::planck_j_s * constants::speed_of_light_m_s / constants::boltzmann_j_k;
 inline constexpr double second_radiation_cm_k = 100.0 * second_radiation_m_k;
 
-// Integral of f (planck) or g (derivative) over [x1, x2], 0 <= x1 < x2 <= +inf.
-double planck_integral_x(double x1, double x2);
-double planck_derivative_integral_x(double x1, double x2);
+// Integral of f (planck) or g (derivative) over [x1, x2], 0 <= x1 < x2 <= +inf. `width` is
+// x2 - x1 computed as scale * (nu2 - nu1), which keeps narrow bands accurate far from x = 0.
+double planck_integral_x(double x1, double x2, double width);
+double planck_derivative_integral_x(double x1, double x2, double width);
 
 // The integrands themselves, safe at x = 0 and for large x (underflow to 0).
 double planck_integrand_x(double x);
@@ -32,12 +33,11 @@ void check_band(double nu1_cm1, double nu2_cm1, const char* function);
 // Prefactors: B_nu = radiance_factor * nu^3 / (e^x - 1) with nu in cm-1 (the 1e8 is 100^3 from
 // nu^3 in m-3 times 100 for "per cm-1" instead of "per m-1"), and
 // band radiance = band_factor * T^4 * integral of f (no wavenumber unit left in it).
-inline constexpr double radiance_factor = 2.0 * constants::planck_j_s * constants::speed_of_light_m_s *
-                                          constants::speed_of_light_m_s * 1e8;
-inline constexpr double band_factor =
-    2.0 * (constants::boltzmann_j_k * constants::boltzmann_j_k) *
-    (constants::boltzmann_j_k * constants::boltzmann_j_k) /
-    (constants::planck_j_s * constants::planck_j_s * constants::planck_j_s *
-     constants::speed_of_light_m_s * constants::speed_of_light_m_s);
+inline constexpr double radiance_factor =
+    2.0 * constants::planck_j_s * constants::speed_of_light_m_s * constants::speed_of_light_m_s * 1e8;
+inline constexpr double band_factor = 2.0 * (constants::boltzmann_j_k * constants::boltzmann_j_k) *
+                                      (constants::boltzmann_j_k * constants::boltzmann_j_k) /
+                                      (constants::planck_j_s * constants::planck_j_s * constants::planck_j_s *
+                                       constants::speed_of_light_m_s * constants::speed_of_light_m_s);
 
 } // namespace bandstack::spectral::detail

@@ -5,6 +5,7 @@
 #include "bandstack/atmosphere/column.hpp"
 #include "bandstack/core/gas.hpp"
 #include "bandstack/solvers/angular_quadrature.hpp"
+#include "bandstack/solvers/longwave_result.hpp"
 
 #include <array>
 #include <vector>
@@ -29,16 +30,6 @@ struct GreyOptics {
 
 // Grey Planck radiance sigma T^4 / pi (W m-2 sr-1) of temperature t_k (K).
 [[nodiscard]] double grey_source_w_m2_sr(double t_k) noexcept;
-
-struct LongwaveResult {
-  std::vector<double> flux_up;            // N+1 levels, W m-2, positive upward
-  std::vector<double> flux_down;          // N+1 levels, W m-2, positive downward
-  std::vector<double> heating_rate_k_day; // N layers, K/day (see heating.hpp)
-  // Outgoing longwave radiation: flux_up at the top level (W m-2).
-  [[nodiscard]] double olr() const;
-  // Downward flux at the surface level (W m-2).
-  [[nodiscard]] double surface_down() const;
-};
 
 // Grey longwave fluxes and heating rates of a column. The source is sigma T^4 / pi at the levels
 // (column.temperature_level_k), varying linearly in optical depth inside each layer, and

@@ -32,8 +32,7 @@ namespace bandstack::spectral {
 [[nodiscard]] double planck_band_radiance_derivative(double nu1_cm1, double nu2_cm1, double t_k);
 
 // d/dT of the band radiance by quadrature of planck_radiance_derivative (reference path).
-[[nodiscard]] double planck_band_radiance_derivative_reference(double nu1_cm1, double nu2_cm1,
-                                                               double t_k);
+[[nodiscard]] double planck_band_radiance_derivative_reference(double nu1_cm1, double nu2_cm1, double t_k);
 
 // Blackbody fraction: the share of the total radiance sigma T^4 / pi that falls in
 // [nu1_cm1, nu2_cm1]; dimensionless, in [0, 1]. Same arguments as planck_band_radiance.
