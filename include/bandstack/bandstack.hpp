@@ -8,17 +8,30 @@
 
 #include "bandstack/thermo/thermo.hpp"
 
+#include "bandstack/spectral/absorber.hpp"
+#include "bandstack/spectral/analytic_absorber.hpp"
+#include "bandstack/spectral/band_builder.hpp"
+#include "bandstack/spectral/band_set.hpp"
+#include "bandstack/spectral/band_set_summary.hpp"
+#include "bandstack/spectral/cross_section_file.hpp"
 #include "bandstack/spectral/planck.hpp"
 
 #include "bandstack/atmosphere/atmosphere.hpp"
 
 #include "bandstack/solvers/angular_quadrature.hpp"
+#include "bandstack/solvers/band_longwave.hpp"
+#include "bandstack/solvers/band_optics.hpp"
 #include "bandstack/solvers/grey.hpp"
 #include "bandstack/solvers/longwave_result.hpp"
 #include "bandstack/solvers/heating.hpp"
 #include "bandstack/solvers/longwave.hpp"
+#include "bandstack/solvers/longwave_many.hpp"
+#include "bandstack/solvers/reference_longwave.hpp"
 
 #include "bandstack/io/atomic_output.hpp"
+#include "bandstack/io/band_catalog.hpp"
+#include "bandstack/io/band_set_file.hpp"
+#include "bandstack/io/builtin_files.hpp"
 #include "bandstack/io/demo_study.hpp"
 #include "bandstack/io/result_writer.hpp"
 #include "bandstack/io/study.hpp"

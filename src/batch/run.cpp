@@ -7,26 +7,9 @@
 #include "bandstack/core/error.hpp"
 #include "bandstack/io/atomic_output.hpp"
 #include "bandstack/io/result_writer.hpp"
-#include "bandstack/solvers/angular_quadrature.hpp"
+#include "batch/longwave_setup.hpp"
 
 namespace bandstack::batch {
-
-namespace {
-
-solvers::AngularQuadrature quadrature_for(const io::LongwaveSettings& lw) {
-  return lw.angle_method == io::AngleMethod::gauss ? solvers::gauss_quadrature(static_cast<int>(lw.gauss_angles))
-                                                   : solvers::diffusivity_quadrature(lw.diffusivity_factor);
-}
-
-std::string describe_longwave(const io::LongwaveSettings& lw) {
-  std::string text = "grey: constant mass absorption coefficients (m2 kg-1)";
-  for (Gas g : all_gases) text += fmt::format(" {}={}", gas_name(g), lw.grey.mass_absorption_m2_kg[index(g)]);
-  text += lw.angle_method == io::AngleMethod::gauss ? fmt::format("; {}-point Gauss angular quadrature", lw.gauss_angles)
-                                                    : fmt::format("; diffusivity factor {}", lw.diffusivity_factor);
-  return text + "; source linear in optical depth within layers";
-}
-
-} // namespace
 
 std::vector<atmosphere::Column> build_columns(const io::Study& study) {
   std::vector<atmosphere::Column> columns;
@@ -44,14 +27,21 @@ std::vector<atmosphere::Column> build_columns(const io::Study& study) {
   return columns;
 }
 
-std::vector<ColumnResult> compute_columns(const io::Study& study, const std::vector<atmosphere::Column>& columns,
-                                          std::size_t threads) {
-  const solvers::AngularQuadrature angles = quadrature_for(study.longwave);
+namespace {
+
+std::vector<ColumnResult> compute_with(const io::Study& study, const LongwaveSetup& setup,
+                                       const std::vector<atmosphere::Column>& columns, std::size_t threads) {
   std::vector<ColumnResult> results(columns.size());
   auto work = [&] {
     tbb::parallel_for(std::size_t{0}, columns.size(), [&](std::size_t c) {
       results[c].column = columns[c];
-      results[c].longwave = solvers::solve_grey_longwave(columns[c], study.longwave.grey, angles);
+      try {
+        results[c].longwave = solve_longwave(study, setup, columns[c]);
+      } catch (const InputError& e) {
+        throw InputError(InputPlace{study.source_file, fmt::format("columns[{}] \"{}\"", c, columns[c].name), {}, {},
+                                    static_cast<long>(c), {}},
+                         e.what());
+      }
     });
   };
   if (threads == 0) {
@@ -63,6 +53,13 @@ std::vector<ColumnResult> compute_columns(const io::Study& study, const std::vec
   return results;
 }
 
+} // namespace
+
+std::vector<ColumnResult> compute_columns(const io::Study& study, const std::vector<atmosphere::Column>& columns,
+                                          std::size_t threads) {
+  return compute_with(study, prepare_longwave(study), columns, threads);
+}
+
 std::filesystem::path output_path(const io::Study& study, const RunOptions& options) {
   if (options.output_directory.empty()) return study.output_file;
   return options.output_directory / study.output_file.filename();
@@ -72,13 +69,14 @@ RunOutcome run_study(const io::Study& study, const RunOptions& options) {
   const std::filesystem::path path = output_path(study, options);
   io::check_output_folder(path); // fail before the work, not after
   const std::vector<atmosphere::Column> columns = build_columns(study);
-  const std::vector<ColumnResult> results = compute_columns(study, columns, options.threads);
+  const LongwaveSetup setup = prepare_longwave(study);
+  const std::vector<ColumnResult> results = compute_with(study, setup, columns, options.threads);
   io::RunInfo info;
   info.title = study.title;
   info.study_file = study.source_file;
   info.study_text = study.source_text;
   info.command_line = study.source_file.empty() ? "bandstack demo" : "bandstack run " + study.source_file;
-  info.longwave_method = describe_longwave(study.longwave);
+  info.longwave_method = setup.description;
   io::write_result_file(path, results, info);
   return RunOutcome{path, results};
 }

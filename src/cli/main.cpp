@@ -10,12 +10,17 @@
 #include "bandstack/batch/run.hpp"
 #include "bandstack/core/error.hpp"
 #include "bandstack/core/version.hpp"
+#include "bandstack/io/band_catalog.hpp"
+#include "bandstack/io/band_set_file.hpp"
 #include "bandstack/io/study.hpp"
+#include "bandstack/spectral/band_set_summary.hpp"
 
 namespace {
 
 struct Options {
   std::string study_path;
+  std::string recipe;
+  std::string band_set_path;
   std::string out_dir;
   std::size_t threads = 0;
   bool quiet = false;
@@ -52,6 +57,14 @@ int dispatch(int argc, char** argv) {
   CLI::App* check = app.add_subcommand("check", "Validate a study file without running it");
   check->add_option("study", o.study_path, "Study file (TOML)")->required();
 
+  CLI::App* bands = app.add_subcommand("bands", "Build or inspect band sets (k-distributions)");
+  bands->require_subcommand(1);
+  CLI::App* bands_build = bands->add_subcommand("build", "Build a band set from a recipe");
+  bands_build->add_option("recipe", o.recipe, "Build recipe (TOML file) or built-in name (default_lw, fine_lw)")->required();
+  bands_build->add_option("-o,--output", o.band_set_path, "Band-set file to write (netCDF)")->required();
+  CLI::App* bands_info = bands->add_subcommand("info", "Summarise a band set");
+  bands_info->add_option("band_set", o.band_set_path, "Band-set file or built-in name")->required();
+
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
@@ -65,6 +78,15 @@ int dispatch(int argc, char** argv) {
     if (o.out_dir.empty()) o.out_dir = "bandstack-demo";
     std::filesystem::create_directories(o.out_dir);
     return run(study, o);
+  }
+  if (*bands_build) {
+    bandstack::io::write_band_set(o.band_set_path, bandstack::io::build_band_set_from_recipe(o.recipe));
+    if (!o.quiet) std::printf("wrote %s\n", o.band_set_path.c_str());
+    return 0;
+  }
+  if (*bands_info) {
+    std::fputs(bandstack::spectral::describe_band_set(bandstack::io::load_band_set(o.band_set_path)).c_str(), stdout);
+    return 0;
   }
   if (*run_cmd) return run(bandstack::io::load_study(o.study_path), o);
   if (*check) {

@@ -6,7 +6,7 @@ namespace bandstack {
 
 std::string InputPlace::describe() const {
   std::ostringstream out;
-  std::string sep;
+  const char* sep = ""; // a char pointer, not a std::string: avoids a GCC 12 -Wrestrict false positive
   if (!file.empty()) {
     out << file;
     if (line) {

@@ -36,9 +36,17 @@ void read_longwave(TomlReader& r, const toml::table& root, LongwaveSettings& lw)
   const toml::table* t = r.table(root, "", "longwave");
   if (!t) return;
   r.reject_unknown_keys(*t, "longwave",
-                        {"method", "angular_quadrature", "gauss_angles", "diffusivity_factor", "grey_mass_absorption_m2_per_kg"});
-  if (auto v = r.string(*t, "longwave", "method"); v && *v != "grey")
-    r.problem(t->get("method")->source(), "longwave.method", "must be \"grey\" (the only longwave method so far), not \"" + *v + "\"");
+                        {"method", "band_set", "absorbers", "reference_step_cm1", "angular_quadrature", "gauss_angles",
+                         "diffusivity_factor", "grey_mass_absorption_m2_per_kg"});
+  if (auto v = r.string(*t, "longwave", "method")) {
+    if (*v == "grey") lw.method = LongwaveMethod::grey;
+    else if (*v == "bands") lw.method = LongwaveMethod::bands;
+    else if (*v == "reference") lw.method = LongwaveMethod::reference;
+    else r.problem(t->get("method")->source(), "longwave.method", "must be \"bands\", \"reference\" or \"grey\", not \"" + *v + "\"");
+  }
+  if (auto v = r.string(*t, "longwave", "band_set")) lw.band_set = *v;
+  if (auto v = r.string(*t, "longwave", "absorbers")) lw.absorbers = *v;
+  if (auto v = r.number(*t, "longwave", "reference_step_cm1", 0.01, 1.0)) lw.reference_step_cm1 = *v;
   if (auto v = r.string(*t, "longwave", "angular_quadrature")) {
     if (*v == "gauss") lw.angle_method = AngleMethod::gauss;
     else if (*v == "diffusivity") lw.angle_method = AngleMethod::diffusivity;

@@ -17,7 +17,7 @@ TEST(Run, ResultsAreBitIdenticalForAnyThreadCount) {
   const std::vector<io::ColumnSpec> base = study.columns;
   for (int copy = 0; copy < 8; ++copy)
     for (io::ColumnSpec spec : base) {
-      spec.name += "_" + std::to_string(copy);
+      spec.name.append("_").append(std::to_string(copy));
       spec.settings.co2_mole_fraction *= 1.0 + 0.1 * copy;
       study.columns.push_back(spec);
     }

@@ -86,6 +86,21 @@ def main():
     i2 = names.index("reference_1976_doubled_co2")
     check(olr[i2] < olr[i1], f"doubled CO2 should lower OLR: {olr[i1]} -> {olr[i2]}")
 
+    # Longwave by band: CF coordinate band_lw (band centre) with bounds; bands add up to the totals.
+    check("band_lw" in ds.coords and ds["band_lw"].attrs.get("units") == "cm-1", "band_lw coordinate in cm-1")
+    check(ds["band_lw"].attrs.get("bounds") == "band_lw_bounds", "band_lw has CF bounds")
+    bounds = ds["band_lw_bounds"].values
+    check(bool(np.all(bounds[1:, 0] == bounds[:-1, 1])), "bands are contiguous")
+    for name, total in (("lw_flux_up_by_band", "lw_flux_up"), ("lw_flux_down_by_band", "lw_flux_down"),
+                        ("lw_heating_rate_by_band", "lw_heating_rate")):
+        if check(name in ds.variables, f"variable {name} missing"):
+            summed = ds[name].sum("band_lw").values
+            check(np.allclose(summed, ds[total].values, rtol=1e-10, atol=1e-10), f"{name} sums to {total}")
+    # Select the CO2 15 um band by wavenumber, as a user would.
+    co2_band = ds["lw_flux_up_by_band"].sel(band_lw=667.5, method="nearest")
+    check(co2_band.sizes == {"column": ds.sizes["column"], "level": ds.sizes["level"]}, "sel by band_lw")
+    check("default_lw" in ds.attrs.get("longwave_method", ""), "longwave_method names the band set")
+
     # Bit-identical numbers for 1 and 2 threads.
     ds2 = xr.open_dataset(path2)
     for name in ds.data_vars:

@@ -20,7 +20,15 @@ struct ColumnSpec {
 
 enum class AngleMethod { gauss, diffusivity };
 
+// How longwave optics are computed: one grey absorber per gas, a band set (correlated-k), or the
+// line-resolved reference on the absorber source's fine wavenumber grid.
+enum class LongwaveMethod { grey, bands, reference };
+
 struct LongwaveSettings {
+  LongwaveMethod method = LongwaveMethod::bands;
+  std::string band_set = "default_lw";      // built-in band-set name or a band-set file path
+  std::string absorbers = "earth_idealised_absorbers"; // reference: built-in recipe name, recipe .toml or cross-section .nc
+  double reference_step_cm1 = 0.1;          // reference: fine-grid spacing (0.01 .. 1 cm-1)
   solvers::GreyOptics grey;                 // constant mass absorption coefficient per gas (m2 kg-1)
   AngleMethod angle_method = AngleMethod::gauss;
   std::size_t gauss_angles = 3;             // 1..8 when angle_method is gauss

@@ -1,0 +1,53 @@
+#pragma once
+// A band set: k-distributions of every absorber in every band, tabulated on a reference (p, T)
+// grid, plus the Planck fraction of each g-point. Built by the band builder, stored in a band-set
+// file (docs/band-set-file.md), used by the band optics.
+//
+// g-points are spectral-mapping bins: each g-point stands for a set of fine-grid wavenumbers of its
+// band, chosen once by sorting the band's absorption at a reference state; the same set is used at
+// every (p, T) (the correlated-k assumption). Hence each g-point has its own Planck fraction.
+#include <array>
+#include <cstddef>
+#include <string>
+#include <vector>
+
+#include "bandstack/spectral/absorber.hpp"
+
+namespace bandstack::spectral {
+
+struct BandSet {
+  // Bands (n_band), contiguous and increasing: band b covers [band_lower_cm1[b], band_upper_cm1[b]].
+  std::vector<double> band_lower_cm1;
+  std::vector<double> band_upper_cm1;
+  // g-points (n_g). The g-points of one band are contiguous and in band order.
+  std::vector<std::size_t> gpoint_band;   // band index of each g-point
+  std::vector<double> gpoint_weight;      // share of the band's wavenumber interval; sums to 1 per band
+  // Reference grid of the tables, both strictly increasing.
+  std::vector<double> ref_pressure_pa;    // n_p
+  std::vector<double> ref_temperature_k;  // n_t
+  // absorption_coefficient[((a * n_g + g) * n_t + t) * n_p + p] for absorber a (see absorber.hpp for
+  // units). Absorbers with absorber_present[a] == false are all zero.
+  std::vector<double> absorption_coefficient;
+  std::array<bool, absorber_count> absorber_present{};
+  // Planck fraction of each g-point within its band, planck_fraction[g * n_pt + t] at
+  // planck_temperature_k[t] (strictly increasing). Sums to 1 over the g-points of a band.
+  std::vector<double> planck_temperature_k; // n_pt
+  std::vector<double> planck_fraction;
+  // Provenance, written to the file's global attributes.
+  std::string name;                 // e.g. "default_lw"
+  std::string source_description;   // the absorber source's description()
+  std::string recipe_text;          // the build recipe
+  std::string builder_version;      // bandstack version that built it
+
+  [[nodiscard]] std::size_t band_count() const noexcept { return band_lower_cm1.size(); }
+  [[nodiscard]] std::size_t gpoint_count() const noexcept { return gpoint_band.size(); }
+  [[nodiscard]] double kappa(Absorber a, std::size_t g, std::size_t t, std::size_t p) const noexcept {
+    return absorption_coefficient[((index(a) * gpoint_count() + g) * ref_temperature_k.size() + t) * ref_pressure_pa.size() + p];
+  }
+};
+
+// Checks sizes, ordering, finiteness, non-negative coefficients, weights and Planck fractions summing
+// to 1 per band (1e-9). Throws InputError naming `file` and the variable.
+void validate(const BandSet& set, const std::string& file = "");
+
+} // namespace bandstack::spectral

@@ -1,0 +1,102 @@
+#include "bandstack/solvers/band_longwave.hpp"
+
+#include "bandstack/core/error.hpp"
+#include "bandstack/solvers/heating.hpp"
+
+#include <fmt/format.h>
+#include <string>
+
+namespace bandstack::solvers {
+
+namespace {
+
+[[noreturn]] void fail(const char* item, const std::string& message) {
+  InputPlace place;
+  place.item = item;
+  throw InputError(place, message);
+}
+
+} // namespace
+
+void finish_longwave_result(const atmosphere::Column& column, LongwaveResult& result) {
+  const std::size_t n = column.layer_count();
+  const std::size_t levels = n + 1;
+  const std::size_t n_band = result.band_count();
+  if (n_band == 0 || result.band_upper_cm1.size() != n_band || result.flux_up_by_band.size() != n_band * levels ||
+      result.flux_down_by_band.size() != n_band * levels)
+    fail("longwave_result",
+         fmt::format("band-resolved fluxes need {} bands x {} levels and one upper edge per band", n_band, levels));
+  result.flux_up.assign(levels, 0.0);
+  result.flux_down.assign(levels, 0.0);
+  for (std::size_t b = 0; b < n_band; ++b)
+    for (std::size_t k = 0; k < levels; ++k) {
+      result.flux_up[k] += result.flux_up_by_band[b * levels + k];
+      result.flux_down[k] += result.flux_down_by_band[b * levels + k];
+    }
+  result.heating_rate_k_day.resize(n);
+  heating_rate_k_day(column.pressure_level_pa, result.flux_up, result.flux_down, column.gravity_m_s2,
+                     result.heating_rate_k_day);
+  result.heating_rate_by_band.resize(n_band * n);
+  const std::span<const double> up(result.flux_up_by_band), down(result.flux_down_by_band);
+  for (std::size_t b = 0; b < n_band; ++b)
+    heating_rate_k_day(column.pressure_level_pa, up.subspan(b * levels, levels), down.subspan(b * levels, levels),
+                       column.gravity_m_s2, std::span<double>(result.heating_rate_by_band).subspan(b * n, n));
+}
+
+void solve_band_longwave(const atmosphere::Column& column, const BandOpticsTables& tables,
+                         const AngularQuadrature& angles, std::span<const double> surface_emissivity_by_band,
+                         BandLongwaveWorkspace& ws, LongwaveResult& result) {
+  compute_band_optics(column, tables, ws.optics, ws.optics_workspace); // validates the column
+  const std::size_t n = column.layer_count();
+  const std::size_t levels = n + 1;
+  const std::size_t n_band = tables.band_count();
+  const std::size_t n_g = tables.gpoint_count();
+
+  if (!surface_emissivity_by_band.empty() && surface_emissivity_by_band.size() != n_band)
+    fail("surface_emissivity_by_band", fmt::format("has {} values, expected one per band ({})",
+                                                   surface_emissivity_by_band.size(), n_band));
+  for (std::size_t b = 0; b < surface_emissivity_by_band.size(); ++b)
+    if (!(surface_emissivity_by_band[b] >= 0.0 && surface_emissivity_by_band[b] <= 1.0))
+      fail("surface_emissivity_by_band",
+           fmt::format("band {}: emissivity {} must lie in [0, 1]", b, surface_emissivity_by_band[b]));
+  ws.emissivity.resize(n_g);
+  for (std::size_t g = 0; g < n_g; ++g)
+    ws.emissivity[g] = surface_emissivity_by_band.empty() ? column.surface_emissivity
+                                                          : surface_emissivity_by_band[tables.gpoint_band[g]];
+
+  ws.flux_up.resize(levels * n_g);
+  ws.flux_down.resize(levels * n_g);
+  longwave_fluxes_many(n_g, ws.optics.optical_depth, ws.optics.source_level, ws.optics.source_surface, ws.emissivity,
+                       angles, ws.flux_up, ws.flux_down, ws.kernel_workspace);
+
+  result.band_lower_cm1.assign(tables.band_lower_cm1.begin(), tables.band_lower_cm1.end());
+  result.band_upper_cm1.assign(tables.band_upper_cm1.begin(), tables.band_upper_cm1.end());
+  result.flux_up_by_band.resize(n_band * levels);
+  result.flux_down_by_band.resize(n_band * levels);
+  for (std::size_t b = 0; b < n_band; ++b) {
+    const std::size_t first = tables.band_first_gpoint[b], last = tables.band_first_gpoint[b + 1];
+    for (std::size_t k = 0; k < levels; ++k) {
+      const double* up = ws.flux_up.data() + k * n_g;
+      const double* down = ws.flux_down.data() + k * n_g;
+      double sum_up = 0.0, sum_down = 0.0;
+      for (std::size_t g = first; g < last; ++g) {
+        sum_up += up[g];
+        sum_down += down[g];
+      }
+      result.flux_up_by_band[b * levels + k] = sum_up;
+      result.flux_down_by_band[b * levels + k] = sum_down;
+    }
+  }
+  finish_longwave_result(column, result);
+}
+
+LongwaveResult solve_band_longwave(const atmosphere::Column& column, const spectral::BandSet& set,
+                                   const AngularQuadrature& angles, std::span<const double> surface_emissivity_by_band) {
+  const BandOpticsTables tables = make_band_optics_tables(set);
+  BandLongwaveWorkspace ws;
+  LongwaveResult result;
+  solve_band_longwave(column, tables, angles, surface_emissivity_by_band, ws, result);
+  return result;
+}
+
+} // namespace bandstack::solvers

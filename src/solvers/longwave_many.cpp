@@ -1,0 +1,179 @@
+// GCC keeps floating-point selects (x < c ? a : b) out of vectorised loops as long as it assumes
+// that floating-point operations may trap (-ftrapping-math, its default). bandstack never enables
+// floating-point traps, so this file drops that assumption; Clang does not make it by default.
+#if defined(__GNUC__) && !defined(__clang__)
+#pragma GCC optimize("no-trapping-math")
+#endif
+
+#include "bandstack/solvers/longwave_many.hpp"
+
+#include "bandstack/core/constants.hpp"
+#include "bandstack/core/error.hpp"
+#include "solvers/vector_math.hpp"
+
+#include <cmath>
+#include <limits>
+#include <string>
+
+namespace bandstack::solvers {
+
+namespace {
+
+// a = 1 - e^-x and g = 1 - (1 - e^-x)/x from one expm1 reduction (vector_math.hpp). While the
+// reduction leaves n = 0 (x up to ln2/2), r = -x exactly and a = x - x^2 s(-x), so
+// g = 1 - a/x = x s(-x) with no cancellation; beyond, a/x <= 0.85 and 1 - a/x loses under one
+// digit. Both stay within a few 1e-16 relative for every x >= 0, x = 0 included (a = g = 0).
+inline void layer_factors(double x, double& absorptance, double& linear_source) noexcept {
+  const detail::Expm1Parts e = detail::expm1_parts(-x);
+  const double a = -(e.scale * (e.r + e.r * (e.r * e.s)) + (e.scale - 1.0));
+  const bool reduced = e.n != 0.0;
+  const double safe_x = reduced ? x : 1.0;
+  absorptance = a;
+  linear_source = reduced ? 1.0 - a / safe_x : x * e.s;
+}
+
+[[noreturn]] void fail(const char* item, std::size_t level, const std::string& message) {
+  InputPlace place;
+  place.item = item;
+  place.level = static_cast<long>(level);
+  throw InputError(place, message);
+}
+
+// One pass without early exit (so it vectorises); the slow search for the culprit runs only on
+// failure. `per_level` points share a level index in messages.
+BANDSTACK_VECTOR_CLONES
+double count_outside(const double* values, std::size_t size, double lo, double hi) {
+  // A double count vectorises with SSE2 (a bool or integer one does not); eight partial counts
+  // break the chain of dependent additions.
+  double bad[8] = {};
+  std::size_t m = 0;
+  for (; m + 8 <= size; m += 8)
+    for (std::size_t k = 0; k < 8; ++k)
+      bad[k] += (values[m + k] >= lo && values[m + k] <= hi) ? 0.0 : 1.0;
+  for (; m < size; ++m)
+    bad[0] += (values[m] >= lo && values[m] <= hi) ? 0.0 : 1.0;
+  return ((bad[0] + bad[1]) + (bad[2] + bad[3])) + ((bad[4] + bad[5]) + (bad[6] + bad[7]));
+}
+
+void check_range(std::span<const double> values, double lo, double hi, const char* item, std::size_t per_level,
+                 const char* what) {
+  if (count_outside(values.data(), values.size(), lo, hi) == 0.0) return;
+  for (std::size_t m = 0; m < values.size(); ++m)
+    if (!(values[m] >= lo && values[m] <= hi))
+      fail(item, m / per_level, "value " + std::to_string(values[m]) + " at spectral point " +
+                                    std::to_string(m % per_level) + " " + what);
+}
+
+// One layer for every point, downward: factors from the slant optical depth, stored for the
+// upward pass, radiance updated and its flux contribution added at the level below.
+BANDSTACK_VECTOR_CLONES
+void down_through_layer(std::size_t n, double inv_mu, double pi_w, const double* __restrict tau,
+                        const double* __restrict b_in, const double* __restrict b_out, double* __restrict a,
+                        double* __restrict g, double* __restrict radiance, double* __restrict flux) {
+  for (std::size_t q = 0; q < n; ++q) {
+    double aq, gq;
+    layer_factors(tau[q] * inv_mu, aq, gq);
+    a[q] = aq;
+    g[q] = gq;
+    double r = radiance[q];
+    r += -aq * (r - b_in[q]) + gq * (b_out[q] - b_in[q]);
+    radiance[q] = r;
+    flux[q] += pi_w * r;
+  }
+}
+
+// One layer for every point, upward, with the factors of the downward pass.
+BANDSTACK_VECTOR_CLONES
+void up_through_layer(std::size_t n, double pi_w, const double* __restrict b_in, const double* __restrict b_out,
+                      const double* __restrict a, const double* __restrict g, double* __restrict radiance,
+                      double* __restrict flux) {
+  for (std::size_t q = 0; q < n; ++q) {
+    double r = radiance[q];
+    r += -a[q] * (r - b_in[q]) + g[q] * (b_out[q] - b_in[q]);
+    radiance[q] = r;
+    flux[q] += pi_w * r;
+  }
+}
+
+} // namespace
+
+void longwave_fluxes_many(std::size_t point_count, std::span<const double> tau, std::span<const double> source_level,
+                          std::span<const double> source_surface, std::span<const double> surface_emissivity,
+                          const AngularQuadrature& angles, std::span<double> flux_up, std::span<double> flux_down,
+                          LongwaveManyWorkspace& workspace) {
+  const std::size_t n = point_count;
+  if (n == 0) fail("spectral_points", 0, "the longwave solver needs at least one spectral point");
+  if (tau.empty() || tau.size() % n != 0)
+    fail("optical_depth", 0,
+         "has " + std::to_string(tau.size()) + " values, expected a positive multiple of the " + std::to_string(n) +
+             " spectral points");
+  const std::size_t layers = tau.size() / n;
+  const std::size_t level_values = (layers + 1) * n;
+  if (source_level.size() != level_values)
+    fail("planck_source_level", 0,
+         "has " + std::to_string(source_level.size()) + " values, expected (layers + 1) x points = " +
+             std::to_string(level_values));
+  if (source_surface.size() != n || surface_emissivity.size() != n)
+    fail("planck_source_surface", 0, "surface source and emissivity need one value per spectral point");
+  if (flux_up.size() != level_values || flux_down.size() != level_values)
+    fail("longwave_flux", 0, "flux outputs need (layers + 1) x points = " + std::to_string(level_values) + " values");
+  validate(angles);
+  constexpr double largest = std::numeric_limits<double>::max();
+  check_range(tau, 0.0, largest, "optical_depth", n, "must be finite and >= 0");
+  check_range(source_level, 0.0, largest, "planck_source_level", n, "must be finite and >= 0");
+  check_range(source_surface, 0.0, largest, "planck_source_surface", n, "must be finite and >= 0");
+  check_range(surface_emissivity, 0.0, 1.0, "surface_emissivity", n, "must lie in [0, 1]");
+
+  const std::size_t n_dir = angles.size();
+  workspace.absorptance.resize(n_dir * layers * n);
+  workspace.linear_source.resize(n_dir * layers * n);
+  workspace.radiance.resize(n);
+  workspace.surface_radiance.resize(n);
+  double* __restrict radiance = workspace.radiance.data();
+  double* __restrict up = flux_up.data();
+  double* __restrict down = flux_down.data();
+  const double* __restrict b = source_level.data();
+  const double* __restrict t = tau.data();
+  for (std::size_t m = 0; m < level_values; ++m) {
+    up[m] = 0.0;
+    down[m] = 0.0;
+  }
+
+  // Per direction and layer, exactly the update of longwave_fluxes (longwave.cpp, which cites the
+  // linear-in-tau solution): I_out = I_in - a (I_in - B_in) + g (B_out - B_in).
+  double* a_all = workspace.absorptance.data();
+  double* g_all = workspace.linear_source.data();
+  for (std::size_t j = 0; j < n_dir; ++j) {
+    const double inv_mu = 1.0 / angles.mu[j];
+    const double pi_w = constants::pi * angles.weight[j];
+    for (std::size_t q = 0; q < n; ++q)
+      radiance[q] = 0.0; // nothing enters at the top
+    for (std::size_t i = 0; i < layers; ++i) {
+      const std::size_t at = (j * layers + i) * n;
+      down_through_layer(n, inv_mu, pi_w, t + i * n, b + i * n, b + (i + 1) * n, a_all + at, g_all + at, radiance,
+                         down + (i + 1) * n);
+    }
+  }
+
+  // Lambertian surface: emits e B_s and reflects (1 - e) of the downward flux isotropically.
+  double* __restrict surface = workspace.surface_radiance.data();
+  const double* __restrict down_surface = down + layers * n;
+  for (std::size_t q = 0; q < n; ++q) {
+    const double e = surface_emissivity[q];
+    surface[q] = e * source_surface[q] + (1.0 - e) * down_surface[q] / constants::pi;
+  }
+  for (std::size_t j = 0; j < n_dir; ++j) {
+    const double pi_w = constants::pi * angles.weight[j];
+    double* __restrict u_surface = up + layers * n;
+    for (std::size_t q = 0; q < n; ++q) {
+      radiance[q] = surface[q];
+      u_surface[q] += pi_w * surface[q];
+    }
+    for (std::size_t i = layers; i-- > 0;) {
+      const std::size_t at = (j * layers + i) * n;
+      up_through_layer(n, pi_w, b + (i + 1) * n, b + i * n, a_all + at, g_all + at, radiance, up + i * n);
+    }
+  }
+}
+
+} // namespace bandstack::solvers
