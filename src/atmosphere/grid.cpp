@@ -9,11 +9,7 @@ namespace bandstack::atmosphere {
 
 namespace {
 
-[[noreturn]] void bad(const char* item, const std::string& message) {
-  InputPlace place;
-  place.item = item;
-  throw InputError(place, message);
-}
+[[noreturn]] void bad(const char* item, const std::string& message) { throw InputError(InputPlace::of(item), message); }
 
 } // namespace
 

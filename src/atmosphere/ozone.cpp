@@ -10,11 +10,7 @@ namespace bandstack::atmosphere {
 
 namespace {
 
-[[noreturn]] void bad(const char* item, const std::string& message) {
-  InputPlace place;
-  place.item = item;
-  throw InputError(place, message);
-}
+[[noreturn]] void bad(const char* item, const std::string& message) { throw InputError(InputPlace::of(item), message); }
 
 void check(const GreenOzone& o) {
   if (!std::isfinite(o.total_column_cm_ntp) || o.total_column_cm_ntp < 0.0)

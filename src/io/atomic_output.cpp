@@ -36,7 +36,9 @@ void check_output_folder(const std::filesystem::path& path) {
 
 AtomicOutput::AtomicOutput(std::filesystem::path final_path) : final_(std::move(final_path)) {
   check_output_folder(final_);
-  std::string pattern = (folder_of(final_) / ("." + final_.filename().string() + ".part-XXXXXX")).string();
+  std::string name = ".";
+  name.append(final_.filename().string()).append(".part-XXXXXX"); // append, not operator+: GCC 12 -Wrestrict false positive
+  std::string pattern = (folder_of(final_) / name).string();
   const int fd = ::mkstemp(pattern.data());
   if (fd < 0) throw FileError(final_.string(), std::string("cannot create a temporary file: ") + std::strerror(errno));
   ::close(fd);

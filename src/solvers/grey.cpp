@@ -13,21 +13,16 @@ namespace bandstack::solvers {
 
 namespace {
 
-InputPlace place_of(std::string item) {
-  InputPlace place;
-  place.item = std::move(item);
-  return place;
-}
 
 void check_optics(const GreyOptics& optics) {
   for (Gas gas : all_gases) {
     const double kappa = optics.mass_absorption_m2_kg[index(gas)];
     if (!(kappa >= 0.0) || !std::isfinite(kappa))
-      throw InputError(place_of(std::string(gas_name(gas)) + "_mass_absorption"),
+      throw InputError(InputPlace::of(std::string(gas_name(gas)) + "_mass_absorption"),
                        "grey mass absorption coefficient must be finite and >= 0 m2 kg-1");
   }
   if (!(optics.extra_tau_per_pa >= 0.0) || !std::isfinite(optics.extra_tau_per_pa))
-    throw InputError(place_of("extra_tau_per_pa"), "must be finite and >= 0 Pa-1");
+    throw InputError(InputPlace::of("extra_tau_per_pa"), "must be finite and >= 0 Pa-1");
 }
 
 } // namespace

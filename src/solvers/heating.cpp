@@ -11,11 +11,6 @@ namespace bandstack::solvers {
 
 namespace {
 
-InputPlace place_of(std::string item) {
-  InputPlace place;
-  place.item = std::move(item);
-  return place;
-}
 
 } // namespace
 
@@ -23,12 +18,12 @@ void heating_rate_k_day(std::span<const double> pressure_level_pa, std::span<con
                         std::span<const double> flux_down, double gravity, std::span<double> out) {
   const std::size_t n = out.size();
   if (pressure_level_pa.size() != n + 1 || flux_up.size() != n + 1 || flux_down.size() != n + 1)
-    throw InputError(place_of("heating_rate"),
+    throw InputError(InputPlace::of("heating_rate"),
                      "needs layers + 1 = " + std::to_string(n + 1) + " pressure levels and fluxes, got " +
                          std::to_string(pressure_level_pa.size()) + " pressures, " + std::to_string(flux_up.size()) +
                          " upward and " + std::to_string(flux_down.size()) + " downward fluxes");
   if (!(gravity > 0.0) || !std::isfinite(gravity))
-    throw InputError(place_of("gravity"), "must be finite and > 0 m s-2");
+    throw InputError(InputPlace::of("gravity"), "must be finite and > 0 m s-2");
   // First law for a layer of mass dp/g per unit area at constant pressure:
   // c_p (dp/g) dT/dt = F_net(top) - F_net(bottom), F_net positive downward.
   const double factor = gravity / constants::specific_heat_dry_air_j_kg_k * constants::seconds_per_day;

@@ -12,11 +12,6 @@ namespace bandstack::solvers {
 
 namespace {
 
-InputPlace place_of(std::string item) {
-  InputPlace place;
-  place.item = std::move(item);
-  return place;
-}
 
 // Below this slant optical depth the factors come from their Taylor series: 1 - exp(-x) and
 // 1 - (1 - exp(-x))/x both cancel for small x. With 12 terms the truncation error at x = 0.25 is
@@ -56,8 +51,8 @@ void check_inputs(std::span<const double> tau, std::span<const double> source, d
   for (std::size_t k = 0; k <= n; ++k)
     if (!(source[k] >= 0.0) || !std::isfinite(source[k])) fail("planck_source_level", k, "must be finite and >= 0");
   if (!(source_surface >= 0.0) || !std::isfinite(source_surface))
-    throw InputError(place_of("planck_source_surface"), "must be finite and >= 0");
-  if (!(emissivity >= 0.0 && emissivity <= 1.0)) throw InputError(place_of("surface_emissivity"), "must lie in [0, 1]");
+    throw InputError(InputPlace::of("planck_source_surface"), "must be finite and >= 0");
+  if (!(emissivity >= 0.0 && emissivity <= 1.0)) throw InputError(InputPlace::of("surface_emissivity"), "must lie in [0, 1]");
   validate(angles);
 }
 

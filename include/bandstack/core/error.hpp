@@ -2,9 +2,11 @@
 // One exception tree for the whole library, rooted at std::runtime_error. Each kind carries the
 // process exit code the command line returns for it: 2 for bad input, 1 for internal errors.
 // Errors are caught only in main().
+#include <cstddef>
 #include <optional>
 #include <stdexcept>
 #include <string>
+#include <utility>
 
 namespace bandstack {
 
@@ -31,6 +33,18 @@ struct InputPlace {
   std::optional<long> level;          // level or layer index (0 = top of atmosphere)
 
   [[nodiscard]] std::string describe() const;
+
+  // Shorthands for the most common places: an item, optionally at a level (or layer) index.
+  [[nodiscard]] static InputPlace of(std::string item) {
+    InputPlace place;
+    place.item = std::move(item);
+    return place;
+  }
+  [[nodiscard]] static InputPlace of(std::string item, std::size_t level) {
+    InputPlace place = of(std::move(item));
+    place.level = static_cast<long>(level);
+    return place;
+  }
 };
 
 // Bad input from the user: a malformed or inconsistent file, a value out of range, a wrong unit.
