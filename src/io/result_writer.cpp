@@ -12,6 +12,7 @@
 #include "bandstack/core/version.hpp"
 #include "bandstack/io/atomic_output.hpp"
 #include "bandstack/thermo/humidity.hpp"
+#include "io/netcdf_put.hpp"
 
 namespace bandstack::io {
 
@@ -20,42 +21,11 @@ namespace {
 using netCDF::NcDim;
 using netCDF::NcFile;
 using netCDF::NcVar;
-
-struct Attributes {
-  const char* units;
-  const char* long_name;
-  const char* standard_name; // nullptr where CF has none
-};
-
-NcVar add_variable(NcFile& file, const std::string& name, const std::vector<NcDim>& dims, const Attributes& a) {
-  NcVar var = file.addVar(name, netCDF::ncDouble, dims);
-  var.putAtt("units", a.units);
-  var.putAtt("long_name", a.long_name);
-  if (a.standard_name) var.putAtt("standard_name", a.standard_name);
-  if (dims.front().getName() == "column") var.putAtt("coordinates", "column_name");
-  return var;
-}
-
-// Gathers one value per column (or per column and level/layer) into a row-major buffer.
-void put_per_column(NcVar var, std::span<const batch::ColumnResult> results,
-                    const std::function<double(const batch::ColumnResult&)>& get) {
-  std::vector<double> data;
-  data.reserve(results.size());
-  for (const auto& r : results) data.push_back(get(r));
-  var.putVar(data.data());
-}
-
-void put_profile(NcVar var, std::span<const batch::ColumnResult> results, std::size_t length,
-                 const std::function<const std::vector<double>&(const batch::ColumnResult&)>& get) {
-  std::vector<double> data;
-  data.reserve(results.size() * length);
-  for (const auto& r : results) {
-    const std::vector<double>& v = get(r);
-    if (v.size() != length) throw InternalError("profile length mismatch while writing " + var.getName());
-    data.insert(data.end(), v.begin(), v.end());
-  }
-  var.putVar(data.data());
-}
+using detail::add_variable;
+using detail::put_per_column;
+using detail::put_profile;
+using detail::write_longwave;
+using detail::write_shortwave;
 
 std::string utc_now() {
   const std::time_t now = std::chrono::system_clock::to_time_t(std::chrono::system_clock::now());
@@ -75,50 +45,6 @@ const char* gas_standard_name(Gas g) {
   case Gas::h2o: return nullptr; // water is also written as specific_humidity, which CF names
   }
   return nullptr;
-}
-
-// Longwave results by band: a CF coordinate `band_lw` (band centre, cm-1) with bounds, and the
-// by-band fluxes and heating rates.
-void write_longwave_bands(NcFile& file, std::span<const batch::ColumnResult> results, const NcDim& column,
-                          const NcDim& level, const NcDim& layer) {
-  const solvers::LongwaveResult& first = results.front().longwave;
-  const std::size_t n_band = first.band_count();
-  const std::size_t n_level = level.getSize();
-  const std::size_t n_layer = layer.getSize();
-  const NcDim band = file.addDim("band_lw", n_band);
-  const NcDim bounds = file.addDim("bounds", 2);
-  std::vector<double> centre(n_band), edges(2 * n_band);
-  for (std::size_t b = 0; b < n_band; ++b) {
-    centre[b] = 0.5 * (first.band_lower_cm1[b] + first.band_upper_cm1[b]);
-    edges[2 * b] = first.band_lower_cm1[b];
-    edges[2 * b + 1] = first.band_upper_cm1[b];
-  }
-  NcVar coord = file.addVar("band_lw", netCDF::ncDouble, band);
-  coord.putAtt("units", "cm-1");
-  coord.putAtt("long_name", "centre wavenumber of the longwave band");
-  coord.putAtt("bounds", "band_lw_bounds");
-  coord.putVar(centre.data());
-  NcVar bound = file.addVar("band_lw_bounds", netCDF::ncDouble, {band, bounds});
-  bound.putAtt("units", "cm-1");
-  bound.putAtt("long_name", "lower and upper wavenumber of the longwave band");
-  bound.putVar(edges.data());
-
-  std::vector<double> up, down, heating;
-  for (std::size_t c = 0; c < results.size(); ++c) {
-    const solvers::LongwaveResult& lw = results[c].longwave;
-    if (lw.band_lower_cm1 != first.band_lower_cm1 || lw.band_upper_cm1 != first.band_upper_cm1)
-      throw InternalError("all columns of one result file must use the same longwave bands");
-    BANDSTACK_ASSERT(lw.flux_up_by_band.size() == n_band * n_level && lw.heating_rate_by_band.size() == n_band * n_layer);
-    up.insert(up.end(), lw.flux_up_by_band.begin(), lw.flux_up_by_band.end());
-    down.insert(down.end(), lw.flux_down_by_band.begin(), lw.flux_down_by_band.end());
-    heating.insert(heating.end(), lw.heating_rate_by_band.begin(), lw.heating_rate_by_band.end());
-  }
-  add_variable(file, "lw_flux_up_by_band", {column, band, level}, {"W m-2", "upwelling longwave flux in each band", nullptr})
-      .putVar(up.data());
-  add_variable(file, "lw_flux_down_by_band", {column, band, level}, {"W m-2", "downwelling longwave flux in each band", nullptr})
-      .putVar(down.data());
-  add_variable(file, "lw_heating_rate_by_band", {column, band, layer}, {"K day-1", "longwave radiative heating rate in each band", nullptr})
-      .putVar(heating.data());
 }
 
 void write_contents(NcFile& file, std::span<const batch::ColumnResult> results, const RunInfo& info) {
@@ -169,22 +95,10 @@ void write_contents(NcFile& file, std::span<const batch::ColumnResult> results, 
         .putVar(flat.data());
   }
 
-  put_profile(add_variable(file, "lw_flux_up", per_level, {"W m-2", "upwelling longwave flux", "upwelling_longwave_flux_in_air"}),
-              results, n_layers + 1, [](const R& r) -> const auto& { return r.longwave.flux_up; });
-  put_profile(add_variable(file, "lw_flux_down", per_level, {"W m-2", "downwelling longwave flux", "downwelling_longwave_flux_in_air"}),
-              results, n_layers + 1, [](const R& r) -> const auto& { return r.longwave.flux_down; });
-  put_profile(add_variable(file, "lw_heating_rate", per_layer,
-                           {"K day-1", "longwave radiative heating rate", "tendency_of_air_temperature_due_to_longwave_heating"}),
-              results, n_layers, [](const R& r) -> const auto& { return r.longwave.heating_rate_k_day; });
-
-  if (results.front().longwave.band_count() > 0) write_longwave_bands(file, results, column, level, layer);
+  write_longwave(file, results, column, level, layer);
+  write_shortwave(file, results, column, level, layer);
 
   const std::vector<NcDim> scalar{column};
-  put_per_column(add_variable(file, "olr", scalar, {"W m-2", "outgoing longwave radiation at the top of the atmosphere", "toa_outgoing_longwave_flux"}),
-                 results, [](const R& r) { return r.longwave.olr(); });
-  put_per_column(add_variable(file, "surface_lw_flux_down", scalar,
-                              {"W m-2", "downwelling longwave flux at the surface", "surface_downwelling_longwave_flux_in_air"}),
-                 results, [](const R& r) { return r.longwave.surface_down(); });
   put_per_column(add_variable(file, "surface_temperature", scalar, {"K", "surface skin temperature", "surface_temperature"}),
                  results, [](const R& r) { return r.column.surface_temperature_k; });
   put_per_column(add_variable(file, "surface_emissivity", scalar, {"1", "broadband longwave emissivity of the surface", nullptr}),

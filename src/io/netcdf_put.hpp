@@ -1,0 +1,40 @@
+#pragma once
+// Private to io: small helpers for writing per-column variables of a result file with netCDF-cxx4.
+#include <functional>
+#include <span>
+#include <string>
+#include <vector>
+
+#include <netcdf>
+
+#include "bandstack/batch/column_result.hpp"
+
+namespace bandstack::io::detail {
+
+struct Attributes {
+  const char* units;
+  const char* long_name;
+  const char* standard_name; // nullptr where CF has none
+};
+
+// Adds a double variable with units, long_name, standard_name and (on the column dimension) the
+// column_name coordinate.
+netCDF::NcVar add_variable(netCDF::NcFile& file, const std::string& name, const std::vector<netCDF::NcDim>& dims,
+                           const Attributes& attributes);
+
+// Writes one value per column.
+void put_per_column(netCDF::NcVar var, std::span<const batch::ColumnResult> results,
+                    const std::function<double(const batch::ColumnResult&)>& get);
+
+// Writes one profile of `length` values per column (column-major by column, then level or layer).
+void put_profile(netCDF::NcVar var, std::span<const batch::ColumnResult> results, std::size_t length,
+                 const std::function<const std::vector<double>&(const batch::ColumnResult&)>& get);
+
+// The flux variables: longwave (always) and shortwave (when the run computed it), each with its
+// band coordinate and by-band variables when the method is band-resolved.
+void write_longwave(netCDF::NcFile& file, std::span<const batch::ColumnResult> results, const netCDF::NcDim& column,
+                    const netCDF::NcDim& level, const netCDF::NcDim& layer);
+void write_shortwave(netCDF::NcFile& file, std::span<const batch::ColumnResult> results, const netCDF::NcDim& column,
+                     const netCDF::NcDim& level, const netCDF::NcDim& layer);
+
+} // namespace bandstack::io::detail
