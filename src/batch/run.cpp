@@ -4,12 +4,24 @@
 #include <tbb/parallel_for.h>
 #include <tbb/task_arena.h>
 
+#include "bandstack/atmosphere/sun.hpp"
 #include "bandstack/core/error.hpp"
 #include "bandstack/io/atomic_output.hpp"
 #include "bandstack/io/result_writer.hpp"
 #include "batch/longwave_setup.hpp"
 
 namespace bandstack::batch {
+
+atmosphere::SunGeometry sun_geometry(const io::SunSpec& sun) {
+  if (sun.cos_zenith) return {*sun.cos_zenith, 1.0, 1.0};
+  if (sun.latitude_deg && sun.day_of_year) {
+    if (sun.local_solar_time_h)
+      return atmosphere::instantaneous_geometry(*sun.latitude_deg, *sun.day_of_year, *sun.local_solar_time_h);
+    return atmosphere::daily_mean_geometry(*sun.latitude_deg, *sun.day_of_year);
+  }
+  // Global mean: the Sun at cos zenith 0.5 for half of the time gives S0/4 at the top (common practice).
+  return {0.5, 1.0, 0.5};
+}
 
 std::vector<atmosphere::Column> build_columns(const io::Study& study) {
   std::vector<atmosphere::Column> columns;
@@ -18,6 +30,7 @@ std::vector<atmosphere::Column> build_columns(const io::Study& study) {
     const io::ColumnSpec& spec = study.columns[i];
     try {
       columns.push_back(atmosphere::make_column(spec.settings, study.grid, spec.name));
+      columns.back().sun = sun_geometry(spec.sun);
     } catch (const InputError& e) {
       throw InputError(InputPlace{study.source_file, fmt::format("columns[{}] \"{}\"", i, spec.name), {}, {},
                                   static_cast<long>(i), {}},
@@ -54,6 +67,12 @@ std::vector<ColumnResult> compute_with(const io::Study& study, const LongwaveSet
 }
 
 } // namespace
+
+std::vector<atmosphere::Column> check_study(const io::Study& study) {
+  std::vector<atmosphere::Column> columns = build_columns(study);
+  (void)prepare_longwave(study);
+  return columns;
+}
 
 std::vector<ColumnResult> compute_columns(const io::Study& study, const std::vector<atmosphere::Column>& columns,
                                           std::size_t threads) {

@@ -34,6 +34,8 @@ std::string InputError::compose(const InputPlace& place, const std::string& mess
   return where.empty() ? message : where + ": " + message;
 }
 
+std::string first_line(const std::string& text) { return text.substr(0, text.find('\n')); }
+
 void assertion_failed(const char* expression, const char* file, int line) {
   throw InternalError(std::string("internal error: assertion '") + expression + "' failed at " + file + ':' +
                       std::to_string(line) + " (please report this as a bug)");

@@ -291,7 +291,7 @@ void write_band_set(const std::filesystem::path& path, const BandSet& set) {
     write_contents(file, set);
     file.close();
   } catch (const netCDF::exceptions::NcException& e) {
-    throw FileError(path.string(), std::string("netCDF error while writing the band set: ") + e.what());
+    throw FileError(path.string(), std::string("netCDF error while writing the band set: ") + first_line(e.what()));
   }
   out.commit();
 }
@@ -306,7 +306,7 @@ BandSet read_band_set(const std::filesystem::path& path) {
     set = read_contents(path, file);
   } catch (const netCDF::exceptions::NcException& e) {
     throw FileError(path.string(),
-                    std::string("cannot read as a netCDF band-set file (not netCDF, or damaged): ") + e.what());
+                    std::string("cannot read as a netCDF band-set file (not netCDF, or damaged): ") + first_line(e.what()));
   }
   spectral::validate(set, path.string());
   return set;

@@ -133,7 +133,7 @@ void write_result_file(const std::filesystem::path& path, std::span<const batch:
     write_contents(file, results, info);
     file.close();
   } catch (const netCDF::exceptions::NcException& e) {
-    throw FileError(path.string(), std::string("netCDF error while writing: ") + e.what());
+    throw FileError(path.string(), std::string("netCDF error while writing: ") + first_line(e.what()));
   }
   out.commit();
 }

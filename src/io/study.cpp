@@ -64,11 +64,38 @@ void read_longwave(TomlReader& r, const toml::table& root, LongwaveSettings& lw)
   }
 }
 
+void read_shortwave(TomlReader& r, const toml::table& root, ShortwaveSettings& sw) {
+  const toml::table* t = r.table(root, "", "shortwave");
+  if (!t) return;
+  r.reject_unknown_keys(*t, "shortwave", {"method", "band_set", "solar_constant_w_m2"});
+  if (auto v = r.string(*t, "shortwave", "method")) {
+    if (*v == "bands") sw.method = ShortwaveMethod::bands;
+    else if (*v == "none") sw.method = ShortwaveMethod::none;
+    else r.problem(t->get("method")->source(), "shortwave.method", "must be \"bands\" or \"none\", not \"" + *v + "\"");
+  }
+  if (auto v = r.string(*t, "shortwave", "band_set")) sw.band_set = *v;
+  if (auto v = r.number(*t, "shortwave", "solar_constant_w_m2", 0.0, 1e5)) sw.solar_constant_w_m2 = *v;
+}
+
+void read_sun(TomlReader& r, const toml::table& t, const std::string& prefix, SunSpec& sun) {
+  sun.cos_zenith = r.number(t, prefix, "cos_zenith", 0.0, 1.0);
+  sun.latitude_deg = r.number(t, prefix, "latitude_deg", -90.0, 90.0);
+  sun.day_of_year = r.number(t, prefix, "day_of_year", 1.0, 366.0);
+  sun.local_solar_time_h = r.number(t, prefix, "local_solar_time_h", 0.0, 24.0);
+  const bool by_place = sun.latitude_deg || sun.day_of_year || sun.local_solar_time_h;
+  if (sun.cos_zenith && by_place)
+    r.problem(t.get("cos_zenith")->source(), prefix + ".cos_zenith",
+              "give either cos_zenith or latitude_deg/day_of_year(/local_solar_time_h), not both");
+  else if (by_place && !(sun.latitude_deg && sun.day_of_year))
+    r.problem(t.source(), prefix, "the Sun's position needs both latitude_deg and day_of_year");
+}
+
 ColumnSpec read_column(TomlReader& r, const toml::table& t, std::size_t i) {
   const std::string prefix = fmt::format("columns[{}]", i);
   r.reject_unknown_keys(t, prefix,
                         {"name", "profile", "surface_temperature_k", "surface_relative_humidity", "stratospheric_h2o_ppmv",
-                         "co2_ppmv", "ch4_ppmv", "n2o_ppmv", "ozone_scale", "surface_emissivity", "surface_albedo"});
+                         "co2_ppmv", "ch4_ppmv", "n2o_ppmv", "ozone_scale", "surface_emissivity", "surface_albedo",
+                         "cos_zenith", "latitude_deg", "day_of_year", "local_solar_time_h"});
   ColumnSpec spec;
   spec.name = r.string(t, prefix, "name").value_or(fmt::format("column_{}", i));
   atmosphere::ProfileSettings& s = spec.settings;
@@ -88,6 +115,7 @@ ColumnSpec read_column(TomlReader& r, const toml::table& t, std::size_t i) {
   if (auto v = r.number(t, prefix, "ozone_scale", 0.0, 100.0)) s.ozone_scale = *v;
   if (auto v = r.number(t, prefix, "surface_emissivity", 0.0, 1.0)) s.surface_emissivity = *v;
   if (auto v = r.number(t, prefix, "surface_albedo", 0.0, 1.0)) s.surface_albedo = *v;
+  read_sun(r, t, prefix, spec.sun);
   return spec;
 }
 
@@ -102,7 +130,7 @@ Study parse_study(std::string_view text, const std::string& file_name) {
     throw InputError(fmt::format("{}:{}:{}: TOML syntax error: {}", file_name, where.line, where.column, e.description()));
   }
   TomlReader r(file_name);
-  r.reject_unknown_keys(root, "", {"title", "grid", "longwave", "output", "columns"});
+  r.reject_unknown_keys(root, "", {"title", "grid", "longwave", "shortwave", "output", "columns"});
 
   Study study;
   study.source_file = file_name;
@@ -110,6 +138,7 @@ Study parse_study(std::string_view text, const std::string& file_name) {
   study.title = r.string(root, "", "title").value_or("");
   read_grid(r, root, study.grid);
   read_longwave(r, root, study.longwave);
+  read_shortwave(r, root, study.shortwave);
 
   std::string output_name = "bandstack_result.nc";
   if (const toml::table* t = r.table(root, "", "output")) {

@@ -240,7 +240,7 @@ CrossSectionTable read_cross_section_file(const std::filesystem::path& path) {
       table.kappa[index(*a)] = std::move(values);
     }
   } catch (const netCDF::exceptions::NcException& e) {
-    throw FileError(file, std::string("cannot read as a netCDF cross-section file: ") + e.what());
+    throw FileError(file, std::string("cannot read as a netCDF cross-section file: ") + first_line(e.what()));
   }
   validate(table, file);
   return table;
@@ -284,7 +284,7 @@ void write_cross_section_file(const std::filesystem::path& path, const CrossSect
     }
     nc.close();
   } catch (const netCDF::exceptions::NcException& e) {
-    throw FileError(path.string(), std::string("cannot write the cross-section file: ") + e.what());
+    throw FileError(path.string(), std::string("cannot write the cross-section file: ") + first_line(e.what()));
   }
   output.commit();
 }

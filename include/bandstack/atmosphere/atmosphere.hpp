@@ -6,4 +6,5 @@
 #include "bandstack/atmosphere/humidity_profile.hpp"
 #include "bandstack/atmosphere/ozone.hpp"
 #include "bandstack/atmosphere/profiles.hpp"
+#include "bandstack/atmosphere/sun.hpp"
 #include "bandstack/atmosphere/us_standard_1976.hpp"

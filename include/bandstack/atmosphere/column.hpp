@@ -20,7 +20,9 @@ namespace bandstack::atmosphere {
 struct SunGeometry {
   double cos_zenith = 0.5;               // cosine of the solar zenith angle
   double distance_factor = 1.0;          // (mean Earth-Sun distance / actual distance)^2
-  double daylight_fraction = 1.0;        // fraction of the period the Sun is up (daily means)
+  double daylight_fraction = 1.0;        // fraction of the period the Sun is up (daily means); with an
+                                         // insolation-weighted cos_zenith, the effective fraction that
+                                         // conserves the mean insolation (see sun.hpp)
 };
 
 struct Column {

@@ -15,8 +15,16 @@ struct RunOptions {
   std::filesystem::path output_directory;    // if not empty, the output file is written here instead
 };
 
+// The Sun's geometry a column spec asks for (see io::SunSpec).
+[[nodiscard]] atmosphere::SunGeometry sun_geometry(const io::SunSpec& sun);
+
 // Builds and validates every column of the study (InputError names the column on failure).
 [[nodiscard]] std::vector<atmosphere::Column> build_columns(const io::Study& study);
+
+// Everything a run would check before computing: builds and validates every column and loads the
+// band sets and absorber sources the study names (InputError / FileError on any problem). Returns
+// the columns. Used by `bandstack check`.
+[[nodiscard]] std::vector<atmosphere::Column> check_study(const io::Study& study);
 
 // Computes every column. Columns are independent and each result goes to its own slot, so the
 // results are bit-identical for any thread count.

@@ -82,6 +82,10 @@ public:
   explicit InternalError(const std::string& message) : Error(message, ExitCode::internal_error) {}
 };
 
+// The first line of a message from a third-party library (netCDF adds its own source file and
+// line on a second line, which means nothing to a user).
+[[nodiscard]] std::string first_line(const std::string& text);
+
 [[noreturn]] void assertion_failed(const char* expression, const char* file, int line);
 
 } // namespace bandstack

@@ -4,8 +4,9 @@
 // Built-in names are the recipes compiled in from bands/ (see builtin_files.hpp): band sets
 // "default_lw" and "fine_lw", absorber recipe "earth_idealised_absorbers". A built-in band set is read
 // from the band-set file generated at build time (or installed) when that file was built from exactly
-// the compiled-in recipe by this version of bandstack; otherwise it is rebuilt in memory from the
-// recipe, which gives the same numbers (the builder is deterministic).
+// the compiled-in recipe by this version of bandstack (the first such file on the search path wins);
+// if there is none, it is rebuilt in memory from the recipe, which gives the same numbers (the
+// builder is deterministic).
 #include <filesystem>
 #include <memory>
 #include <string>

@@ -1,6 +1,7 @@
 #pragma once
 // A study: everything one run needs, read from a TOML study file (format: docs/study-file.md).
 #include <filesystem>
+#include <optional>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -12,10 +13,22 @@
 
 namespace bandstack::io {
 
+// Where the Sun is for one column. Exactly one way is used: a fixed cosine of the zenith angle;
+// latitude + day of year + local solar time (instantaneous); latitude + day of year (daily mean,
+// insolation-weighted zenith angle); or, with nothing given, the global mean (cos zenith 0.5 for
+// half of the time: S0/4 at the top).
+struct SunSpec {
+  std::optional<double> cos_zenith;
+  std::optional<double> latitude_deg;
+  std::optional<double> day_of_year;
+  std::optional<double> local_solar_time_h;
+};
+
 // One column of the study: a built-in profile with its settings.
 struct ColumnSpec {
   std::string name;
   atmosphere::ProfileSettings settings;
+  SunSpec sun;
 };
 
 enum class AngleMethod { gauss, diffusivity };
@@ -35,6 +48,14 @@ struct LongwaveSettings {
   double diffusivity_factor = 1.66;         // when angle_method is diffusivity
 };
 
+enum class ShortwaveMethod { none, bands };
+
+struct ShortwaveSettings {
+  ShortwaveMethod method = ShortwaveMethod::bands;
+  std::string band_set = "default_sw";      // built-in shortwave band-set name or a file path
+  double solar_constant_w_m2 = 1361.0;      // total solar irradiance at 1 au (Kopp & Lean 2011)
+};
+
 struct Study {
   std::string title;
   std::string source_file;                  // path the study was read from ("" for built-in)
@@ -42,6 +63,7 @@ struct Study {
   atmosphere::GridSpec grid;
   std::vector<ColumnSpec> columns;
   LongwaveSettings longwave;
+  ShortwaveSettings shortwave;
   std::filesystem::path output_file;        // absolute, or relative to the working directory
 };
 
