@@ -9,6 +9,7 @@
 #include "bandstack/io/atomic_output.hpp"
 #include "bandstack/io/result_writer.hpp"
 #include "batch/longwave_setup.hpp"
+#include "batch/shortwave_setup.hpp"
 
 namespace bandstack::batch {
 
@@ -42,7 +43,7 @@ std::vector<atmosphere::Column> build_columns(const io::Study& study) {
 
 namespace {
 
-std::vector<ColumnResult> compute_with(const io::Study& study, const LongwaveSetup& setup,
+std::vector<ColumnResult> compute_with(const io::Study& study, const LongwaveSetup& setup, const ShortwaveSetup& sw_setup,
                                        const std::vector<atmosphere::Column>& columns, std::size_t threads) {
   std::vector<ColumnResult> results(columns.size());
   auto work = [&] {
@@ -50,6 +51,7 @@ std::vector<ColumnResult> compute_with(const io::Study& study, const LongwaveSet
       results[c].column = columns[c];
       try {
         results[c].longwave = solve_longwave(study, setup, columns[c]);
+        results[c].shortwave = solve_shortwave(sw_setup, columns[c]);
       } catch (const InputError& e) {
         throw InputError(InputPlace{study.source_file, fmt::format("columns[{}] \"{}\"", c, columns[c].name), {}, {},
                                     static_cast<long>(c), {}},
@@ -71,12 +73,13 @@ std::vector<ColumnResult> compute_with(const io::Study& study, const LongwaveSet
 std::vector<atmosphere::Column> check_study(const io::Study& study) {
   std::vector<atmosphere::Column> columns = build_columns(study);
   (void)prepare_longwave(study);
+  (void)prepare_shortwave(study);
   return columns;
 }
 
 std::vector<ColumnResult> compute_columns(const io::Study& study, const std::vector<atmosphere::Column>& columns,
                                           std::size_t threads) {
-  return compute_with(study, prepare_longwave(study), columns, threads);
+  return compute_with(study, prepare_longwave(study), prepare_shortwave(study), columns, threads);
 }
 
 std::filesystem::path output_path(const io::Study& study, const RunOptions& options) {
@@ -89,22 +92,29 @@ RunOutcome run_study(const io::Study& study, const RunOptions& options) {
   io::check_output_folder(path); // fail before the work, not after
   const std::vector<atmosphere::Column> columns = build_columns(study);
   const LongwaveSetup setup = prepare_longwave(study);
-  const std::vector<ColumnResult> results = compute_with(study, setup, columns, options.threads);
+  const ShortwaveSetup sw_setup = prepare_shortwave(study);
+  const std::vector<ColumnResult> results = compute_with(study, setup, sw_setup, columns, options.threads);
   io::RunInfo info;
   info.title = study.title;
   info.study_file = study.source_file;
   info.study_text = study.source_text;
   info.command_line = study.source_file.empty() ? "bandstack demo" : "bandstack run " + study.source_file;
   info.longwave_method = setup.description;
+  info.shortwave_method = sw_setup.description;
   io::write_result_file(path, results, info);
   return RunOutcome{path, results};
 }
 
 std::string format_summary(const RunOutcome& outcome) {
-  std::string text = fmt::format("{:<28} {:>10} {:>10} {:>12}\n", "column", "T_surf K", "OLR W/m2", "LW_down W/m2");
-  for (const ColumnResult& r : outcome.results)
-    text += fmt::format("{:<28} {:>10.2f} {:>10.2f} {:>12.2f}\n", r.column.name, r.column.surface_temperature_k,
-                        r.longwave.olr(), r.longwave.surface_down());
+  std::string text = fmt::format("{:<28} {:>9} {:>9} {:>9} {:>9} {:>9}   (W m-2; T in K)\n", "column", "T_surf",
+                                 "OLR", "LW_down", "ASR", "TOA_net");
+  for (const ColumnResult& r : outcome.results) {
+    const bool sw = r.has_shortwave();
+    text += fmt::format("{:<28} {:>9.2f} {:>9.2f} {:>9.2f} {:>9} {:>9}\n", r.column.name, r.column.surface_temperature_k,
+                        r.longwave.olr(), r.longwave.surface_down(),
+                        sw ? fmt::format("{:.2f}", r.shortwave.absorbed_solar()) : "-",
+                        sw ? fmt::format("{:.2f}", r.shortwave.absorbed_solar() - r.longwave.olr()) : "-");
+  }
   return text + fmt::format("wrote {}\n", outcome.output_file.string());
 }
 

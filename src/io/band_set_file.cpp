@@ -116,6 +116,15 @@ void write_contents(NcFile& file, const BandSet& set) {
   add_double(file, "planck_fraction", {gpoint, planck_temperature}, "1",
              "share of the band's Planck integral emitted at the g-point's wavenumbers")
       .putVar(set.planck_fraction.data());
+  // Shortwave sets only; a reader treats their absence as a longwave set.
+  if (!set.solar_weight.empty())
+    add_double(file, "solar_weight", {gpoint}, "1",
+               "share of the solar flux at the top of the atmosphere on the g-point's wavenumbers")
+        .putVar(set.solar_weight.data());
+  if (!set.rayleigh_cross_section_m2_kg.empty())
+    add_double(file, "rayleigh_cross_section", {gpoint}, "m2 kg-1",
+               "solar-weighted mean Rayleigh scattering cross-section per unit mass of air")
+        .putVar(set.rayleigh_cross_section_m2_kg.data());
 
   file.putAtt("Conventions", "CF-1.8");
   file.putAtt("title", "bandstack band set " + set.name);
@@ -254,6 +263,9 @@ BandSet read_contents(const std::filesystem::path& path, const NcFile& file) {
   set.ref_temperature_k = r.doubles("ref_temperature", {"ref_temperature"}, "K");
   set.planck_temperature_k = r.doubles("planck_temperature", {"planck_temperature"}, "K");
   set.planck_fraction = r.doubles("planck_fraction", {"gpoint", "planck_temperature"}, "1");
+  if (!file.getVar("solar_weight").isNull()) set.solar_weight = r.doubles("solar_weight", {"gpoint"}, "1");
+  if (!file.getVar("rayleigh_cross_section").isNull())
+    set.rayleigh_cross_section_m2_kg = r.doubles("rayleigh_cross_section", {"gpoint"}, "m2 kg-1");
 
   const std::vector<std::string> names = r.strings("absorber_name", {"absorber", "absorber_text_length"});
   const std::vector<std::string> units = r.strings("absorber_units", {"absorber", "absorber_text_length"});

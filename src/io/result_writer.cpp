@@ -113,6 +113,7 @@ void write_contents(NcFile& file, std::span<const batch::ColumnResult> results, 
   file.putAtt("study_file", info.study_file.empty() ? std::string("(built-in demo)") : info.study_file);
   file.putAtt("study_text", info.study_text);
   file.putAtt("longwave_method", info.longwave_method);
+  if (!info.shortwave_method.empty()) file.putAtt("shortwave_method", info.shortwave_method);
   file.putAtt("vertical_index_convention", "level and layer index 0 is the top of the atmosphere; the last level is the surface");
   file.putAtt("comment", std::string(caution_text()));
 }

@@ -89,6 +89,36 @@ void read_band(TomlReader& r, const toml::table& t, const std::string& prefix, A
   recipe.bands.push_back(std::move(band));
 }
 
+void read_gaussian(TomlReader& r, const toml::table& t, const std::string& prefix, AnalyticRecipe& recipe) {
+  r.reject_unknown_keys(t, prefix,
+                        {"kind", "name", "absorber", "center_cm1", "kappa_m2_per_kg", "peak_cross_section_cm2_per_molecule",
+                         "width_lower_cm1", "width_upper_cm1", "lower_cm1", "upper_cm1"});
+  GaussianBand band;
+  band.name = r.string(t, prefix, "name").value_or("");
+  const auto absorber = read_absorber(r, t, prefix);
+  if (absorber && *absorber == Absorber::h2o_self_continuum)
+    r.problem(t.get("absorber")->source(), prefix + ".absorber",
+              "the self-continuum is not a Gaussian band: use kind = \"self_continuum\"");
+  if (absorber) band.absorber = *absorber;
+  for (const char* key : {"center_cm1", "width_lower_cm1", "width_upper_cm1"})
+    require(r, t, prefix, key);
+  if (auto v = r.number(t, prefix, "center_cm1", 0.0, 1e6)) band.center_cm1 = *v;
+  if (auto v = r.number(t, prefix, "width_lower_cm1", tiny, 1e6)) band.width_lower_cm1 = *v;
+  if (auto v = r.number(t, prefix, "width_upper_cm1", tiny, 1e6)) band.width_upper_cm1 = *v;
+  // The peak as a mass absorption coefficient, or as the cross-section per molecule that laboratory
+  // spectroscopy reports (converted with the gas's molar mass).
+  const bool has_kappa = t.get("kappa_m2_per_kg") != nullptr;
+  const bool has_sigma = t.get("peak_cross_section_cm2_per_molecule") != nullptr;
+  if (has_kappa == has_sigma)
+    r.problem(t.source(), prefix + ".kappa_m2_per_kg",
+              "give exactly one of kappa_m2_per_kg and peak_cross_section_cm2_per_molecule");
+  if (auto v = r.number(t, prefix, "kappa_m2_per_kg", 0.0, 1e12); v && has_kappa && !has_sigma) band.kappa_m2_kg = *v;
+  if (auto v = r.number(t, prefix, "peak_cross_section_cm2_per_molecule", 0.0, 1e-10); v && has_sigma && !has_kappa)
+    band.kappa_m2_kg = *v * cross_section_si_factor(absorber_gas(band.absorber));
+  read_limits(r, t, prefix, band.lower_cm1, band.upper_cm1);
+  recipe.gaussians.push_back(std::move(band));
+}
+
 void read_continuum(TomlReader& r, const toml::table& t, const std::string& prefix, AnalyticRecipe& recipe) {
   r.reject_unknown_keys(t, prefix,
                         {"kind", "name", "absorber", "constant_cm2_per_molecule_atm", "amplitude_cm2_per_molecule_atm",
@@ -154,10 +184,11 @@ AnalyticRecipe parse_absorber_recipe(std::string_view text, const std::string& f
     const auto kind = r.string(t, prefix, "kind");
     if (!kind) continue;
     if (*kind == "exponential_band") read_band(r, t, prefix, recipe);
+    else if (*kind == "gaussian_band") read_gaussian(r, t, prefix, recipe);
     else if (*kind == "self_continuum") read_continuum(r, t, prefix, recipe);
     else
       r.problem(t.get("kind")->source(), prefix + ".kind",
-                "unknown feature kind \"" + *kind + "\" (known: exponential_band, self_continuum)");
+                "unknown feature kind \"" + *kind + "\" (known: exponential_band, gaussian_band, self_continuum)");
   }
 
   if (!r.problems().empty()) {

@@ -53,6 +53,10 @@ double self_continuum_si_factor() noexcept {
   return 1e-4 * constants::avogadro_per_mol / constants::molar_mass_h2o_kg_mol / 101325.0;
 }
 
+double cross_section_si_factor(Gas gas) noexcept {
+  return 1e-4 * constants::avogadro_per_mol / gas_molar_mass_kg_mol(gas);
+}
+
 namespace {
 
 using Segment = detail::SpectralSegment;
@@ -89,6 +93,32 @@ std::vector<Segment> band_segments(const ExponentialBand& b) {
   return out;
 }
 
+// Two half-Gaussians, each cut where its exponent reaches -cutoff_exponent (beyond, kappa is below
+// 1e-282 of the peak). No pressure or temperature factor: p_exponent 0 gives F = 1.
+std::vector<Segment> gaussian_segments(const GaussianBand& b) {
+  std::vector<Segment> out;
+  if (b.kappa_m2_kg <= 0.0) return out;
+  Segment s;
+  s.amplitude = b.kappa_m2_kg;
+  s.nu_ref_cm1 = b.center_cm1;
+  s.p_exponent = 0.0;
+  const double reach_lower = std::sqrt(2.0 * cutoff_exponent) * b.width_lower_cm1;
+  const double reach_upper = std::sqrt(2.0 * cutoff_exponent) * b.width_upper_cm1;
+  Segment lower = s;
+  lower.curvature_cm2 = -0.5 / (b.width_lower_cm1 * b.width_lower_cm1);
+  lower.lower_cm1 = std::max(b.lower_cm1, b.center_cm1 - reach_lower);
+  lower.upper_cm1 = std::min(b.center_cm1, b.upper_cm1);
+  lower.upper_inclusive = b.upper_cm1 < b.center_cm1;
+  out.push_back(lower);
+  Segment upper = s;
+  upper.curvature_cm2 = -0.5 / (b.width_upper_cm1 * b.width_upper_cm1);
+  upper.lower_cm1 = std::max(b.lower_cm1, b.center_cm1);
+  upper.upper_cm1 = std::min(b.upper_cm1, b.center_cm1 + reach_upper);
+  upper.upper_inclusive = true;
+  out.push_back(upper);
+  return out;
+}
+
 std::vector<Segment> continuum_segments(const SelfContinuum& c) {
   std::vector<Segment> out;
   const double si = self_continuum_si_factor();
@@ -114,9 +144,20 @@ std::vector<Segment> continuum_segments(const SelfContinuum& c) {
 
 double state_factor(const Segment& s, const AbsorberState& state) {
   if (s.continuum) return std::exp(s.t0_k * (1.0 / state.temperature_k - 1.0 / s.t_ref_k));
+  if (s.p_exponent == 0.0 && s.t_exponent == 0.0) return 1.0;
   double f = s.p_exponent == 1.0 ? state.pressure_pa / s.p_ref_pa : std::pow(state.pressure_pa / s.p_ref_pa, s.p_exponent);
   if (s.t_exponent != 0.0) f *= std::pow(state.temperature_k / s.t_ref_k, s.t_exponent);
   return f;
+}
+
+// out[i] += coefficient * exp(curvature * (nu_i - nu_ref)^2) for i in [begin, end): one exp() per
+// point; Gaussian features are few and broad, so this costs little next to the exponential bands.
+void add_gaussian(double coefficient, double curvature, double nu_ref, const WavenumberGrid& grid, std::size_t begin,
+                  std::size_t end, double* out) {
+  for (std::size_t i = begin; i < end; ++i) {
+    const double d = grid.at(i) - nu_ref;
+    out[i] += coefficient * std::exp(curvature * d * d);
+  }
 }
 
 // out[i] += coefficient * exp(slope * (nu_i - nu_ref)) for i in [begin, end).
@@ -156,6 +197,15 @@ void check_recipe(const AnalyticRecipe& recipe) {
       fail(b.name, "reference temperature must be positive, exponents finite");
     if (!(b.upper_cm1 > b.lower_cm1) || !(b.lower_cm1 >= 0.0)) fail(b.name, "limits must satisfy 0 <= lower < upper");
   }
+  for (const GaussianBand& b : recipe.gaussians) {
+    if (b.absorber == Absorber::h2o_self_continuum) fail(b.name, "the self-continuum cannot be a Gaussian band");
+    if (!(b.kappa_m2_kg >= 0.0) || !std::isfinite(b.kappa_m2_kg)) fail(b.name, "kappa must be finite and >= 0");
+    if (!(b.center_cm1 >= 0.0) || !std::isfinite(b.center_cm1)) fail(b.name, "centre must be finite and >= 0 cm-1");
+    if (!(b.width_lower_cm1 > 0.0) || !(b.width_upper_cm1 > 0.0) || !std::isfinite(b.width_lower_cm1) ||
+        !std::isfinite(b.width_upper_cm1))
+      fail(b.name, "widths must be positive and finite");
+    if (!(b.upper_cm1 > b.lower_cm1) || !(b.lower_cm1 >= 0.0)) fail(b.name, "limits must satisfy 0 <= lower < upper");
+  }
   for (const SelfContinuum& c : recipe.continua) {
     if (!(c.constant_cm2_molecule_atm >= 0.0) || !(c.amplitude_cm2_molecule_atm >= 0.0) || !(c.decay_cm >= 0.0) ||
         !std::isfinite(c.constant_cm2_molecule_atm + c.amplitude_cm2_molecule_atm + c.decay_cm))
@@ -172,6 +222,8 @@ AnalyticAbsorber::AnalyticAbsorber(AnalyticRecipe recipe) : recipe_(std::move(re
   check_recipe(recipe_);
   for (const ExponentialBand& b : recipe_.bands)
     for (const Segment& s : band_segments(b)) segments_[index(b.absorber)].push_back(s);
+  for (const GaussianBand& b : recipe_.gaussians)
+    for (const Segment& s : gaussian_segments(b)) segments_[index(b.absorber)].push_back(s);
   for (const SelfContinuum& c : recipe_.continua)
     for (const Segment& s : continuum_segments(c)) segments_[index(Absorber::h2o_self_continuum)].push_back(s);
 }
@@ -199,7 +251,10 @@ void AnalyticAbsorber::absorption(Absorber a, const AbsorberState& state, const 
     const std::size_t begin = first_index(grid, s.lower_cm1, true);
     const std::size_t end = first_index(grid, s.upper_cm1, !s.upper_inclusive);
     if (begin >= end) continue; // the feature does not reach this grid
-    add_segment(s.amplitude * state_factor(s, state), s.slope_cm, s.nu_ref_cm1, grid, begin, end, out.data());
+    if (s.curvature_cm2 != 0.0)
+      add_gaussian(s.amplitude * state_factor(s, state), s.curvature_cm2, s.nu_ref_cm1, grid, begin, end, out.data());
+    else
+      add_segment(s.amplitude * state_factor(s, state), s.slope_cm, s.nu_ref_cm1, grid, begin, end, out.data());
   }
 }
 

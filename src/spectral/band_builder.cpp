@@ -10,6 +10,7 @@
 #include "bandstack/core/error.hpp"
 #include "bandstack/core/version.hpp"
 #include "bandstack/spectral/planck.hpp"
+#include "bandstack/spectral/rayleigh.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -111,9 +112,25 @@ bool same_state(const OrderingState& x, const OrderingState& y) {
   return x.pressure_pa == y.pressure_pa && x.temperature_k == y.temperature_k && x.mole_fraction == y.mole_fraction;
 }
 
+// Rayleigh cross-section per unit mass of air at every fine-grid point (empty unless the recipe asks
+// for Rayleigh scattering).
+std::vector<double> rayleigh_on_grid(const BuildRecipe& recipe, const WavenumberGrid& grid) {
+  std::vector<double> r;
+  if (!recipe.solar || !recipe.solar->rayleigh_scattering) return r;
+  if (grid.end_cm1() > rayleigh_max_wavenumber_cm1)
+    throw InputError(recipe_place(recipe, "solar.rayleigh_scattering"),
+                     fmt::format("Rayleigh scattering is defined up to {} cm-1 (0.2 um); the bands reach {} cm-1",
+                                 rayleigh_max_wavenumber_cm1, grid.end_cm1()));
+  r.resize(grid.count);
+  for (std::size_t i = 0; i < grid.count; ++i)
+    r[i] = rayleigh_cross_section_m2_kg(grid.at(i));
+  return r;
+}
+
 // Sorts each band's points by its ordering key and assigns them to g-points (fills layout.gpoint_of).
+// `rayleigh` (per unit mass of air, like the key) is added to the key when not empty.
 void assign_gpoints(const BuildRecipe& recipe, const AbsorberSource& source,
-                    const std::array<bool, absorber_count>& present, Layout& l) {
+                    const std::array<bool, absorber_count>& present, const std::vector<double>& rayleigh, Layout& l) {
   const std::size_t n_band = recipe.bands.size();
   // Bands that share an ordering state share one evaluation of the key over the whole grid.
   std::vector<std::size_t> group(n_band);
@@ -131,7 +148,10 @@ void assign_gpoints(const BuildRecipe& recipe, const AbsorberSource& source,
     const std::array<double, absorber_count> w = ordering_key_weights(o);
     std::vector<double> kappa;
     std::vector<double>& key = keys[k];
-    key.assign(l.grid.count, 0.0);
+    if (rayleigh.empty())
+      key.assign(l.grid.count, 0.0);
+    else
+      key = rayleigh;
     for (Absorber a : all_absorbers) {
       if (!present[index(a)] || w[index(a)] == 0.0) continue;
       evaluate(source, a, AbsorberState{o.pressure_pa, o.temperature_k}, l.grid, kappa);
@@ -223,7 +243,59 @@ void fill_planck(const Layout& l, std::size_t n_band, BandSet& set) {
   });
 }
 
+// A recipe built in code has not been through the parser: check the solar source.
+void check_solar(const BuildRecipe& recipe, const SolarRecipe& solar) {
+  if (!(solar.temperature_k > 0.0) || !std::isfinite(solar.temperature_k))
+    throw InputError(recipe_place(recipe, "solar.temperature_k"), "must be positive and finite");
+  const std::vector<double>& x = solar.brightness_node_cm1;
+  const std::vector<double>& y = solar.brightness_node_k;
+  if (x.size() != y.size() || x.size() == 1)
+    throw InputError(recipe_place(recipe, "solar.brightness_temperature_k"),
+                     "needs as many values as solar.brightness_temperature_cm1, and at least two (or none)");
+  for (std::size_t k = 0; k < x.size(); ++k)
+    if (!std::isfinite(x[k]) || !(x[k] >= 0.0) || (k > 0 && !(x[k] > x[k - 1])) || !std::isfinite(y[k]) || !(y[k] > 0.0))
+      throw InputError(recipe_place(recipe, "solar.brightness_temperature_cm1"),
+                       fmt::format("node {}: wavenumbers must be >= 0 and strictly increasing, temperatures positive "
+                                   "(got {} cm-1, {} K)",
+                                   k, x[k], y[k]));
+}
+
+// Solar weights and Rayleigh cross-sections of a shortwave set, by midpoint sums of the solar
+// spectrum B_nu(T_b(nu)) on the fine grid, the quadrature the rest of the builder uses. Sums run in
+// grid order in one task, so the result does not depend on threads.
+void fill_solar(const SolarRecipe& solar, const Layout& l, const std::vector<double>& rayleigh, BandSet& set) {
+  const std::size_t n_g = l.gpoint_points.size();
+  std::vector<double> energy(n_g, 0.0), scattering(n_g, 0.0);
+  for (std::size_t i = 0; i < l.grid.count; ++i) {
+    const double nu = l.grid.at(i);
+    const double e = planck_radiance(nu, solar.brightness_temperature_k(nu));
+    energy[l.gpoint_of[i]] += e;
+    if (!rayleigh.empty()) scattering[l.gpoint_of[i]] += e * rayleigh[i];
+  }
+  double total = 0.0;
+  for (double e : energy)
+    total += e;
+  if (!(total > 0.0)) throw InputError("the solar spectrum has no energy in the set's bands");
+  set.solar_weight.resize(n_g);
+  for (std::size_t g = 0; g < n_g; ++g)
+    set.solar_weight[g] = energy[g] / total;
+  if (rayleigh.empty()) return;
+  set.rayleigh_cross_section_m2_kg.resize(n_g);
+  for (std::size_t g = 0; g < n_g; ++g)
+    set.rayleigh_cross_section_m2_kg[g] = energy[g] > 0.0 ? scattering[g] / energy[g] : 0.0;
+}
+
 } // namespace
+
+double SolarRecipe::brightness_temperature_k(double nu_cm1) const noexcept {
+  const std::vector<double>& x = brightness_node_cm1;
+  const std::vector<double>& y = brightness_node_k;
+  if (x.size() < 2 || y.size() != x.size() || !(nu_cm1 >= x.front() && nu_cm1 <= x.back())) return temperature_k;
+  const auto j = static_cast<std::size_t>(std::upper_bound(x.begin(), x.end(), nu_cm1) - x.begin());
+  const std::size_t k = std::min(std::max<std::size_t>(j, 1), x.size() - 1);
+  const double f = (nu_cm1 - x[k - 1]) / (x[k] - x[k - 1]);
+  return y[k - 1] + f * (y[k] - y[k - 1]);
+}
 
 std::array<double, absorber_count> ordering_key_weights(const OrderingState& state) noexcept {
   std::array<double, absorber_count> w{};
@@ -264,9 +336,12 @@ BandSet build_band_set(const BuildRecipe& recipe, const AbsorberSource& source) 
                                     0.0);
   set.planck_fraction.assign(n_g * set.planck_temperature_k.size(), 0.0);
 
-  assign_gpoints(recipe, source, set.absorber_present, layout);
+  if (recipe.solar) check_solar(recipe, *recipe.solar);
+  const std::vector<double> rayleigh = rayleigh_on_grid(recipe, layout.grid);
+  assign_gpoints(recipe, source, set.absorber_present, rayleigh, layout);
   fill_tables(recipe, source, set.absorber_present, layout, set);
   fill_planck(layout, recipe.bands.size(), set);
+  if (recipe.solar) fill_solar(*recipe.solar, layout, rayleigh, set);
   validate(set, recipe.file);
   return set;
 }

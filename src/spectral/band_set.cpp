@@ -133,6 +133,29 @@ void validate(const BandSet& set, const std::string& file) {
              fmt::format("band {}, planck_temperature {} ({} K): the fractions of its g-points sum to {:.15g}, not 1",
                          b, t, set.planck_temperature_k[t], sum[b]));
   }
+
+  if (!set.solar_weight.empty()) {
+    require_size(file, "solar_weight", set.solar_weight.size(), n_g, "one per g-point");
+    double total = 0.0;
+    for (std::size_t g = 0; g < n_g; ++g) {
+      const double w = set.solar_weight[g];
+      if (!(std::isfinite(w) && w >= 0.0 && w <= 1.0))
+        fail(file, "solar_weight", fmt::format("g-point {}: value {} must be in [0, 1]", g, w));
+      total += w;
+    }
+    if (std::abs(total - 1.0) > 1e-9)
+      fail(file, "solar_weight", fmt::format("the solar weights of all g-points sum to {:.15g}, not 1", total));
+  }
+  if (!set.rayleigh_cross_section_m2_kg.empty()) {
+    if (set.solar_weight.empty())
+      fail(file, "rayleigh_cross_section", "is given for a set without solar weights (a longwave set)");
+    require_size(file, "rayleigh_cross_section", set.rayleigh_cross_section_m2_kg.size(), n_g, "one per g-point");
+    for (std::size_t g = 0; g < n_g; ++g) {
+      const double r = set.rayleigh_cross_section_m2_kg[g];
+      if (!(std::isfinite(r) && r >= 0.0))
+        fail(file, "rayleigh_cross_section", fmt::format("g-point {}: value {} must be finite and >= 0", g, r));
+    }
+  }
 }
 
 } // namespace bandstack::spectral

@@ -206,6 +206,52 @@ void read_reference_grid(TomlReader& r, const toml::table& root, BuildRecipe& re
   if (auto v = stepped(r, *t, prefix, "planck_temperature")) recipe.planck_temperature_k = *v;
 }
 
+// The [solar] table: its presence makes the set a shortwave set (docs/build-recipe.md).
+void read_solar(TomlReader& r, const toml::table& root, BuildRecipe& recipe) {
+  const toml::table* t = r.table(root, "", "solar");
+  if (!t) return;
+  const std::string prefix = "solar";
+  r.reject_unknown_keys(*t, prefix,
+                        {"temperature_k", "brightness_temperature_cm1", "brightness_temperature_k", "rayleigh_scattering"});
+  SolarRecipe solar;
+  if (auto v = r.number(*t, prefix, "temperature_k", 1000.0, 100000.0))
+    solar.temperature_k = *v;
+  else if (!t->contains("temperature_k"))
+    r.problem(t->source(), prefix + ".temperature_k", "missing: the blackbody temperature of the solar source, e.g. 5772.0");
+  const auto nodes_cm1 = number_list(r, *t, prefix, "brightness_temperature_cm1");
+  const auto nodes_k = number_list(r, *t, prefix, "brightness_temperature_k");
+  if (nodes_cm1.has_value() != nodes_k.has_value()) {
+    r.problem(t->source(), prefix + ".brightness_temperature_k",
+              "give brightness_temperature_cm1 and brightness_temperature_k together");
+  } else if (nodes_cm1 && nodes_k) {
+    const auto& where = t->get("brightness_temperature_k")->source();
+    bool ok = nodes_cm1->size() == nodes_k->size() && nodes_cm1->size() >= 2;
+    if (!ok)
+      r.problem(where, prefix + ".brightness_temperature_k",
+                fmt::format("needs one temperature per wavenumber node and at least two nodes (got {} and {})",
+                            nodes_cm1->size(), nodes_k->size()));
+    for (std::size_t k = 0; ok && k < nodes_cm1->size(); ++k) {
+      if (!((*nodes_cm1)[k] >= 0.0) || (k > 0 && !((*nodes_cm1)[k] > (*nodes_cm1)[k - 1])))
+        ok = false, r.problem(t->get("brightness_temperature_cm1")->source(), prefix + ".brightness_temperature_cm1",
+                              "must be >= 0 and strictly increasing");
+      else if (!((*nodes_k)[k] >= 1000.0 && (*nodes_k)[k] <= 100000.0))
+        ok = false, r.problem(where, prefix + ".brightness_temperature_k",
+                              fmt::format("value {} is outside [1000, 100000] K", (*nodes_k)[k]));
+    }
+    if (ok) {
+      solar.brightness_node_cm1 = *nodes_cm1;
+      solar.brightness_node_k = *nodes_k;
+    }
+  }
+  if (const toml::node* node = t->get("rayleigh_scattering")) {
+    if (const auto* b = node->as_boolean())
+      solar.rayleigh_scattering = b->get();
+    else
+      r.problem(node->source(), prefix + ".rayleigh_scattering", "expected true or false");
+  }
+  recipe.solar = solar;
+}
+
 void read_source(TomlReader& r, const toml::table& root, BuildRecipe& recipe) {
   const std::filesystem::path folder = std::filesystem::path(recipe.file).parent_path();
   const auto resolve = [&](const std::string& value) {
@@ -259,7 +305,7 @@ BuildRecipe parse_build_recipe(std::string_view text, const std::string& file) {
   recipe.text = std::string(text);
   r.reject_unknown_keys(root, "",
                         {"name", "absorbers", "cross_section_file", "wavenumber_step_cm1", "gpoint_mean", "gpoints",
-                         "reference_grid", "ordering_state", "bands"});
+                         "reference_grid", "ordering_state", "bands", "solar"});
   if (auto v = r.string(root, "", "name"))
     recipe.name = *v;
   else if (!root.contains("name"))
@@ -288,6 +334,7 @@ BuildRecipe parse_build_recipe(std::string_view text, const std::string& file) {
     if (auto v = r.number(*g, "gpoints", "ratio", 1e-3, 1.0)) rule.ratio = *v;
   }
   read_reference_grid(r, root, recipe);
+  read_solar(r, root, recipe);
   OrderingState global;
   if (const toml::table* o = r.table(root, "", "ordering_state"))
     read_ordering(r, *o, "ordering_state", global, true);

@@ -27,6 +27,15 @@ EXPECTED = {
     "co2_mole_fraction": ("mol mol-1", "mole_fraction_of_carbon_dioxide_in_air", ("column", "layer")),
     "specific_humidity": ("kg kg-1", "specific_humidity", ("column", "layer")),
     "h2o_mole_fraction": ("mol mol-1", None, ("column", "layer")),
+    "sw_flux_up": ("W m-2", "upwelling_shortwave_flux_in_air", ("column", "level")),
+    "sw_flux_down": ("W m-2", "downwelling_shortwave_flux_in_air", ("column", "level")),
+    "sw_flux_down_direct": ("W m-2", None, ("column", "level")),
+    "sw_flux_down_diffuse": ("W m-2", None, ("column", "level")),
+    "sw_heating_rate": ("K day-1", "tendency_of_air_temperature_due_to_shortwave_heating", ("column", "layer")),
+    "toa_sw_flux_down": ("W m-2", "toa_incoming_shortwave_flux", ("column",)),
+    "toa_sw_flux_up": ("W m-2", "toa_outgoing_shortwave_flux", ("column",)),
+    "absorbed_solar": ("W m-2", None, ("column",)),
+    "toa_net_flux": ("W m-2", None, ("column",)),
 }
 
 failures = []
@@ -100,6 +109,20 @@ def main():
     co2_band = ds["lw_flux_up_by_band"].sel(band_lw=667.5, method="nearest")
     check(co2_band.sizes == {"column": ds.sizes["column"], "level": ds.sizes["level"]}, "sel by band_lw")
     check("default_lw" in ds.attrs.get("longwave_method", ""), "longwave_method names the band set")
+
+    # Shortwave: energy bookkeeping, band coordinate, the polar-night column and the global-mean column.
+    check(np.allclose(ds["absorbed_solar"], ds["toa_sw_flux_down"] - ds["toa_sw_flux_up"], rtol=1e-12, atol=1e-9),
+          "absorbed_solar = incoming - reflected")
+    check(np.allclose(ds["sw_flux_down"], ds["sw_flux_down_direct"] + ds["sw_flux_down_diffuse"], rtol=1e-12, atol=1e-9),
+          "sw_flux_down = direct + diffuse")
+    check(np.allclose(ds["toa_net_flux"], ds["absorbed_solar"] - ds["olr"], rtol=1e-12, atol=1e-9), "toa_net_flux")
+    check("band_sw" in ds.coords and ds["band_sw"].attrs.get("bounds") == "band_sw_bounds", "band_sw coordinate")
+    check(np.allclose(ds["sw_flux_down_by_band"].sum("band_sw"), ds["sw_flux_down"], rtol=1e-10, atol=1e-9),
+          "sw bands sum to the total")
+    check(float(ds["toa_sw_flux_down"][names.index("ice_shelf_winter")]) == 0.0, "polar night has no sunlight")
+    # Global-mean sunlight is S0/4 with S0 = 1361 W m-2 (Kopp & Lean 2011).
+    check(abs(float(ds["toa_sw_flux_down"][names.index("reference_1976")]) - 1361.0 / 4) < 1e-9, "global mean S0/4")
+    check("default_sw" in ds.attrs.get("shortwave_method", ""), "shortwave_method names the band set")
 
     # Bit-identical numbers for 1 and 2 threads.
     ds2 = xr.open_dataset(path2)

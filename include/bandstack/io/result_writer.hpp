@@ -15,6 +15,7 @@ struct RunInfo {
   std::string study_text;       // the full study text
   std::string command_line;     // what was run, for the history attribute
   std::string longwave_method;  // human-readable description of optics and angular quadrature
+  std::string shortwave_method; // the same for the shortwave ("none" when not computed)
 };
 
 // Writes all columns (they must share one level count) to `path` atomically: the file appears only

@@ -10,6 +10,11 @@
 // the band's g boundaries. A g-point is thus a fixed set of wavenumbers; its table entry at each
 // reference (p, T) is the mean over that set of kappa(p, T), its Planck fraction the share of the
 // band's Planck integral that falls on that set, and its weight the share of the band's points.
+//
+// Shortwave sets (a recipe with a [solar] table): the key also has the Rayleigh scattering
+// cross-section per unit mass of air (rayleigh.hpp) added, so g-points follow the extinction, and
+// each g-point gets its solar weight (its share of the solar spectrum over the whole set) and its
+// solar-weighted mean Rayleigh cross-section.
 #include "bandstack/core/gas.hpp"
 #include "bandstack/spectral/absorber.hpp"
 #include "bandstack/spectral/band_set.hpp"
@@ -51,6 +56,21 @@ struct BandRecipe {
   OrderingState ordering; // the recipe's [ordering_state] with the band's own overrides applied
 };
 
+// The solar source of a shortwave set: a spectral irradiance proportional to the Planck function
+// B_nu(T_b(nu)) at a brightness temperature T_b that is `temperature_k` everywhere except between
+// the first and last of the optional nodes, where it is interpolated linearly in wavenumber between
+// them (to follow a measured spectrum, e.g. its ultraviolet deficit). Only the shape matters: the
+// solar weights are normalised to sum to 1 over the set.
+struct SolarRecipe {
+  double temperature_k = 5772.0;                   // K
+  std::vector<double> brightness_node_cm1;         // strictly increasing, or empty
+  std::vector<double> brightness_node_k;           // same size, K
+  bool rayleigh_scattering = true;                 // store Rayleigh cross-sections (rayleigh.hpp)
+
+  // T_b at nu_cm1 (K).
+  [[nodiscard]] double brightness_temperature_k(double nu_cm1) const noexcept;
+};
+
 struct BuildRecipe {
   std::string name; // the band set's name, e.g. "default_lw"
   std::string file; // where the recipe was read from (messages, provenance)
@@ -64,6 +84,7 @@ struct BuildRecipe {
   std::vector<double> ref_pressure_pa;      // strictly increasing (log-spaced by the parser)
   std::vector<double> ref_temperature_k;    // strictly increasing
   std::vector<double> planck_temperature_k; // strictly increasing
+  std::optional<SolarRecipe> solar;         // key [solar]: set => a shortwave set
 
   [[nodiscard]] std::size_t gpoint_count() const noexcept {
     std::size_t n = 0;

@@ -6,6 +6,10 @@
 // g-points are spectral-mapping bins: each g-point stands for a set of fine-grid wavenumbers of its
 // band, chosen once by sorting the band's absorption at a reference state; the same set is used at
 // every (p, T) (the correlated-k assumption). Hence each g-point has its own Planck fraction.
+//
+// A shortwave band set (built from a recipe with a [solar] table) also has the share of the incoming
+// solar flux of each g-point and, optionally, its Rayleigh scattering cross-section; a longwave set
+// leaves both empty.
 #include <array>
 #include <cstddef>
 #include <string>
@@ -33,6 +37,13 @@ struct BandSet {
   // planck_temperature_k[t] (strictly increasing). Sums to 1 over the g-points of a band.
   std::vector<double> planck_temperature_k; // n_pt
   std::vector<double> planck_fraction;
+  // Shortwave sets only (empty otherwise). solar_weight[g]: the share of the solar flux at the top
+  // of the atmosphere that falls on the g-point's wavenumbers; sums to 1 over all g-points of the
+  // set (the set carries the whole total solar irradiance). rayleigh_cross_section_m2_kg[g]: the
+  // solar-weighted mean Rayleigh scattering cross-section per unit mass of air of those wavenumbers
+  // (m2 kg-1; tau = value * air mass in kg m-2); empty if the set has no Rayleigh scattering.
+  std::vector<double> solar_weight;
+  std::vector<double> rayleigh_cross_section_m2_kg;
   // Provenance, written to the file's global attributes.
   std::string name;                 // e.g. "default_lw"
   std::string source_description;   // the absorber source's description()
@@ -41,13 +52,16 @@ struct BandSet {
 
   [[nodiscard]] std::size_t band_count() const noexcept { return band_lower_cm1.size(); }
   [[nodiscard]] std::size_t gpoint_count() const noexcept { return gpoint_band.size(); }
+  [[nodiscard]] bool is_shortwave() const noexcept { return !solar_weight.empty(); }
   [[nodiscard]] double kappa(Absorber a, std::size_t g, std::size_t t, std::size_t p) const noexcept {
     return absorption_coefficient[((index(a) * gpoint_count() + g) * ref_temperature_k.size() + t) * ref_pressure_pa.size() + p];
   }
 };
 
 // Checks sizes, ordering, finiteness, non-negative coefficients, weights and Planck fractions summing
-// to 1 per band (1e-9). Throws InputError naming `file` and the variable.
+// to 1 per band (1e-9); for shortwave sets, solar weights in [0, 1] summing to 1 over the set (1e-9)
+// and finite, non-negative Rayleigh cross-sections (present only with solar weights). Throws
+// InputError naming `file` and the variable.
 void validate(const BandSet& set, const std::string& file = "");
 
 } // namespace bandstack::spectral
