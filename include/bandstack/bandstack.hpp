@@ -15,6 +15,7 @@
 #include "bandstack/spectral/band_set_summary.hpp"
 #include "bandstack/spectral/cross_section_file.hpp"
 #include "bandstack/spectral/planck.hpp"
+#include "bandstack/spectral/rayleigh.hpp"
 
 #include "bandstack/atmosphere/atmosphere.hpp"
 
@@ -27,6 +28,11 @@
 #include "bandstack/solvers/longwave.hpp"
 #include "bandstack/solvers/longwave_many.hpp"
 #include "bandstack/solvers/reference_longwave.hpp"
+#include "bandstack/solvers/band_shortwave.hpp"
+#include "bandstack/solvers/delta_eddington.hpp"
+#include "bandstack/solvers/shortwave.hpp"
+#include "bandstack/solvers/shortwave_optics.hpp"
+#include "bandstack/solvers/shortwave_result.hpp"
 
 #include "bandstack/io/atomic_output.hpp"
 #include "bandstack/io/band_catalog.hpp"
