@@ -89,6 +89,8 @@ void expect_same_tables(const bs::BandSet& a, const bs::BandSet& b, const std::s
   expect_bits_equal(a.planck_temperature_k, b.planck_temperature_k, "planck_temperature_k");
   expect_bits_equal(a.absorption_coefficient, b.absorption_coefficient, "absorption_coefficient");
   expect_bits_equal(a.planck_fraction, b.planck_fraction, "planck_fraction");
+  expect_bits_equal(a.solar_weight, b.solar_weight, "solar_weight");
+  expect_bits_equal(a.rayleigh_cross_section_m2_kg, b.rayleigh_cross_section_m2_kg, "rayleigh_cross_section_m2_kg");
   EXPECT_EQ(a.absorber_present, b.absorber_present);
 }
 
@@ -130,6 +132,8 @@ protected:
 TEST(BandCatalogRebuild, DefaultLwFileMatchesRebuildBitForBit) { check_generated_matches_rebuild("default_lw"); }
 
 TEST(BandCatalogRebuild, FineLwFileMatchesRebuildBitForBit) { check_generated_matches_rebuild("fine_lw"); }
+
+TEST(BandCatalogRebuild, DefaultSwFileMatchesRebuildBitForBit) { check_generated_matches_rebuild("default_sw"); }
 
 TEST(BandCatalogRebuild, RecipeFileInSourceTreeGivesTheBuiltInTables) {
   const fs::path recipe = source_file("bands/default_lw.toml");
