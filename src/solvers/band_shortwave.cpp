@@ -1,5 +1,7 @@
 #include "bandstack/solvers/band_shortwave.hpp"
 
+#include "solvers/band_result.hpp"
+
 #include "bandstack/core/error.hpp"
 #include "bandstack/solvers/heating.hpp"
 
@@ -27,28 +29,7 @@ void check_sun(const atmosphere::SunGeometry& sun) {
 } // namespace
 
 void finish_shortwave_result(const atmosphere::Column& column, ShortwaveResult& result) {
-  const std::size_t n = column.layer_count();
-  const std::size_t levels = n + 1;
-  const std::size_t n_band = result.band_count();
-  if (n_band == 0 || result.band_upper_cm1.size() != n_band || result.flux_up_by_band.size() != n_band * levels ||
-      result.flux_down_by_band.size() != n_band * levels)
-    fail("shortwave_result",
-         fmt::format("band-resolved fluxes need {} bands x {} levels and one upper edge per band", n_band, levels));
-  result.flux_up.assign(levels, 0.0);
-  result.flux_down.assign(levels, 0.0);
-  for (std::size_t b = 0; b < n_band; ++b)
-    for (std::size_t k = 0; k < levels; ++k) {
-      result.flux_up[k] += result.flux_up_by_band[b * levels + k];
-      result.flux_down[k] += result.flux_down_by_band[b * levels + k];
-    }
-  result.heating_rate_k_day.resize(n);
-  heating_rate_k_day(column.pressure_level_pa, result.flux_up, result.flux_down, column.gravity_m_s2,
-                     result.heating_rate_k_day);
-  result.heating_rate_by_band.resize(n_band * n);
-  const std::span<const double> up(result.flux_up_by_band), down(result.flux_down_by_band);
-  for (std::size_t b = 0; b < n_band; ++b)
-    heating_rate_k_day(column.pressure_level_pa, up.subspan(b * levels, levels), down.subspan(b * levels, levels),
-                       column.gravity_m_s2, std::span<double>(result.heating_rate_by_band).subspan(b * n, n));
+  detail::finish_band_result(column, result, "shortwave_result");
 }
 
 void solve_band_shortwave(const atmosphere::Column& column, const ShortwaveOpticsTables& tables,
