@@ -9,6 +9,8 @@
 #include <fstream>
 #include <iterator>
 #include <gtest/gtest.h>
+
+#include "cli/invoke.hpp"
 #include <netcdf>
 #include <sstream>
 #include <string>
@@ -21,20 +23,8 @@ namespace {
 
 namespace fs = std::filesystem;
 
-struct Outcome {
-  int exit_code;
-  std::string output; // stdout and stderr together
-};
-
-Outcome invoke(const std::string& args) {
-  const std::string command = std::string(BANDSTACK_EXE) + " " + args + " 2>&1";
-  FILE* pipe = popen(command.c_str(), "r");
-  std::string output;
-  std::array<char, 4096> buffer{};
-  while (std::fgets(buffer.data(), buffer.size(), pipe)) output += buffer.data();
-  const int status = pclose(pipe);
-  return {WEXITSTATUS(status), output};
-}
+using bandstack::testing::invoke;
+using bandstack::testing::Outcome;
 
 // Single-quoted for the shell. Appended piece by piece: "'" + std::string triggers a GCC 12
 // -Wrestrict false positive.
