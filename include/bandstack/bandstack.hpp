@@ -16,6 +16,7 @@
 #include "bandstack/spectral/cross_section_file.hpp"
 #include "bandstack/spectral/planck.hpp"
 #include "bandstack/spectral/rayleigh.hpp"
+#include "bandstack/spectral/solar_spectrum.hpp"
 
 #include "bandstack/atmosphere/atmosphere.hpp"
 

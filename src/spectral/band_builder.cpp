@@ -11,6 +11,7 @@
 #include "bandstack/core/version.hpp"
 #include "bandstack/spectral/planck.hpp"
 #include "bandstack/spectral/rayleigh.hpp"
+#include "bandstack/spectral/solar_spectrum.hpp"
 
 #include <algorithm>
 #include <cmath>
@@ -245,6 +246,9 @@ void fill_planck(const Layout& l, std::size_t n_band, BandSet& set) {
 
 // A recipe built in code has not been through the parser: check the solar source.
 void check_solar(const BuildRecipe& recipe, const SolarRecipe& solar) {
+  if (solar.spectrum_file && !solar.brightness_node_cm1.empty())
+    throw InputError(recipe_place(recipe, "solar.spectrum_file"),
+                     "give spectrum_file or brightness-temperature nodes, not both");
   if (!(solar.temperature_k > 0.0) || !std::isfinite(solar.temperature_k))
     throw InputError(recipe_place(recipe, "solar.temperature_k"), "must be positive and finite");
   const std::vector<double>& x = solar.brightness_node_cm1;
@@ -260,22 +264,44 @@ void check_solar(const BuildRecipe& recipe, const SolarRecipe& solar) {
                                    k, x[k], y[k]));
 }
 
+// The solar spectrum file of a recipe, read and checked to cover the whole fine grid (no
+// extrapolation: a spectrum that stops inside the set would silently darken its ends).
+SolarSpectrum load_solar_spectrum(const BuildRecipe& recipe, const std::filesystem::path& path, const Layout& l) {
+  SolarSpectrum spectrum = read_solar_spectrum_file(path);
+  const double lo = l.grid.start_cm1, hi = l.grid.end_cm1();
+  if (!spectrum.covers(lo, hi))
+    throw InputError(InputPlace{path.string(), "wavenumber", {}, {}, {}, {}},
+                     fmt::format("the spectrum covers {}-{} cm-1, but the bands of {} span {}-{} cm-1 ({:.6g}-{:.6g} "
+                                 "nm): the solar spectrum must cover the whole set",
+                                 spectrum.wavenumber_cm1.front(), spectrum.wavenumber_cm1.back(),
+                                 recipe.file.empty() ? std::string("the recipe") : recipe.file, lo, hi, 1e7 / hi,
+                                 lo > 0.0 ? 1e7 / lo : std::numeric_limits<double>::infinity()));
+  return spectrum;
+}
+
 // Solar weights and Rayleigh cross-sections of a shortwave set, by midpoint sums of the solar
-// spectrum B_nu(T_b(nu)) on the fine grid, the quadrature the rest of the builder uses. Sums run in
-// grid order in one task, so the result does not depend on threads.
-void fill_solar(const SolarRecipe& solar, const Layout& l, const std::vector<double>& rayleigh, BandSet& set) {
+// spectrum on the fine grid (B_nu(T_b(nu)), or the file's irradiance when `spectrum` is given), the
+// quadrature the rest of the builder uses; the constant step cancels in the normalisation. Sums run
+// in grid order in one task, so the result does not depend on threads.
+void fill_solar(const SolarRecipe& solar, const SolarSpectrum* spectrum, const Layout& l,
+                const std::vector<double>& rayleigh, BandSet& set) {
   const std::size_t n_g = l.gpoint_points.size();
   std::vector<double> energy(n_g, 0.0), scattering(n_g, 0.0);
   for (std::size_t i = 0; i < l.grid.count; ++i) {
     const double nu = l.grid.at(i);
-    const double e = planck_radiance(nu, solar.brightness_temperature_k(nu));
+    const double e = spectrum ? spectrum->irradiance(nu) : planck_radiance(nu, solar.brightness_temperature_k(nu));
     energy[l.gpoint_of[i]] += e;
     if (!rayleigh.empty()) scattering[l.gpoint_of[i]] += e * rayleigh[i];
   }
   double total = 0.0;
   for (double e : energy)
     total += e;
-  if (!(total > 0.0)) throw InputError("the solar spectrum has no energy in the set's bands");
+  if (!(total > 0.0)) {
+    if (spectrum && solar.spectrum_file)
+      throw InputError(InputPlace{solar.spectrum_file->string(), "spectral_irradiance", {}, {}, {}, {}},
+                       "is zero everywhere in the set's bands");
+    throw InputError("the solar spectrum has no energy in the set's bands");
+  }
   set.solar_weight.resize(n_g);
   for (std::size_t g = 0; g < n_g; ++g)
     set.solar_weight[g] = energy[g] / total;
@@ -336,12 +362,20 @@ BandSet build_band_set(const BuildRecipe& recipe, const AbsorberSource& source) 
                                     0.0);
   set.planck_fraction.assign(n_g * set.planck_temperature_k.size(), 0.0);
 
-  if (recipe.solar) check_solar(recipe, *recipe.solar);
+  std::optional<SolarSpectrum> spectrum;
+  if (recipe.solar) {
+    check_solar(recipe, *recipe.solar);
+    if (recipe.solar->spectrum_file) {
+      spectrum = load_solar_spectrum(recipe, *recipe.solar->spectrum_file, layout);
+      set.source_description += fmt::format("; solar spectrum file {}{}", recipe.solar->spectrum_file->string(),
+                                            spectrum->title.empty() ? "" : ": " + spectrum->title);
+    }
+  }
   const std::vector<double> rayleigh = rayleigh_on_grid(recipe, layout.grid);
   assign_gpoints(recipe, source, set.absorber_present, rayleigh, layout);
   fill_tables(recipe, source, set.absorber_present, layout, set);
   fill_planck(layout, recipe.bands.size(), set);
-  if (recipe.solar) fill_solar(*recipe.solar, layout, rayleigh, set);
+  if (recipe.solar) fill_solar(*recipe.solar, spectrum ? &*spectrum : nullptr, layout, rayleigh, set);
   validate(set, recipe.file);
   return set;
 }

@@ -206,18 +206,34 @@ void read_reference_grid(TomlReader& r, const toml::table& root, BuildRecipe& re
   if (auto v = stepped(r, *t, prefix, "planck_temperature")) recipe.planck_temperature_k = *v;
 }
 
-// The [solar] table: its presence makes the set a shortwave set (docs/build-recipe.md).
-void read_solar(TomlReader& r, const toml::table& root, BuildRecipe& recipe) {
-  const toml::table* t = r.table(root, "", "solar");
-  if (!t) return;
+// [solar] spectrum_file: the solar spectrum from a file, which excludes the blackbody keys.
+void read_solar_spectrum_key(TomlReader& r, const toml::table& t, const BuildRecipe& recipe, SolarRecipe& solar) {
+  const std::string key = "solar.spectrum_file";
+  const toml::source_region& where = t.get("spectrum_file")->source();
+  if (auto file = r.string(t, "solar", "spectrum_file")) {
+    if (file->empty()) {
+      r.problem(where, key, "must not be empty");
+    } else {
+      const std::filesystem::path p(*file);
+      solar.spectrum_file = p.is_absolute() ? p : std::filesystem::path(recipe.file).parent_path() / p;
+    }
+  }
+  for (const char* other : {"temperature_k", "brightness_temperature_cm1", "brightness_temperature_k"})
+    if (const toml::node* node = t.get(other))
+      r.problem(where, key,
+                fmt::format("give spectrum_file or the blackbody source, not both (solar.{} is on line {})", other,
+                            node->source().begin.line));
+}
+
+// [solar] temperature_k and the optional brightness-temperature nodes.
+void read_solar_blackbody(TomlReader& r, const toml::table& table, SolarRecipe& solar) {
+  const toml::table* t = &table;
   const std::string prefix = "solar";
-  r.reject_unknown_keys(*t, prefix,
-                        {"temperature_k", "brightness_temperature_cm1", "brightness_temperature_k", "rayleigh_scattering"});
-  SolarRecipe solar;
   if (auto v = r.number(*t, prefix, "temperature_k", 1000.0, 100000.0))
     solar.temperature_k = *v;
   else if (!t->contains("temperature_k"))
-    r.problem(t->source(), prefix + ".temperature_k", "missing: the blackbody temperature of the solar source, e.g. 5772.0");
+    r.problem(t->source(), prefix + ".temperature_k",
+              "missing: the blackbody temperature of the solar source, e.g. 5772.0 (or a spectrum_file instead)");
   const auto nodes_cm1 = number_list(r, *t, prefix, "brightness_temperature_cm1");
   const auto nodes_k = number_list(r, *t, prefix, "brightness_temperature_k");
   if (nodes_cm1.has_value() != nodes_k.has_value()) {
@@ -243,6 +259,21 @@ void read_solar(TomlReader& r, const toml::table& root, BuildRecipe& recipe) {
       solar.brightness_node_k = *nodes_k;
     }
   }
+}
+
+// The [solar] table: its presence makes the set a shortwave set (docs/build-recipe.md).
+void read_solar(TomlReader& r, const toml::table& root, BuildRecipe& recipe) {
+  const toml::table* t = r.table(root, "", "solar");
+  if (!t) return;
+  const std::string prefix = "solar";
+  r.reject_unknown_keys(*t, prefix,
+                        {"temperature_k", "brightness_temperature_cm1", "brightness_temperature_k", "rayleigh_scattering",
+                         "spectrum_file"});
+  SolarRecipe solar;
+  if (t->contains("spectrum_file"))
+    read_solar_spectrum_key(r, *t, recipe, solar);
+  else
+    read_solar_blackbody(r, *t, solar);
   if (const toml::node* node = t->get("rayleigh_scattering")) {
     if (const auto* b = node->as_boolean())
       solar.rayleigh_scattering = b->get();

@@ -13,8 +13,11 @@
 #include "bandstack/core/error.hpp"
 #include "bandstack/core/version.hpp"
 #include "bandstack/io/atomic_output.hpp"
+#include "spectral/netcdf_checks.hpp"
 
 namespace bandstack::spectral {
+
+using namespace detail;
 
 namespace {
 
@@ -22,25 +25,6 @@ constexpr const char* suffix = "_mass_absorption_coefficient";
 constexpr int format_version = 1;
 
 std::string variable_name(Absorber a) { return std::string(absorber_name(a)) + suffix; }
-
-[[noreturn]] void fail(const std::string& file, const std::string& item, const std::string& message) {
-  InputPlace place;
-  place.file = file;
-  place.item = item;
-  throw InputError(place, message);
-}
-
-// Whitespace collapsed to single blanks, trimmed: "m2  kg-1 " -> "m2 kg-1".
-std::string normalise_units(const std::string& units) {
-  std::istringstream in(units);
-  std::string word, out;
-  while (in >> word) out += (out.empty() ? "" : " ") + word;
-  return out;
-}
-
-bool one_of(const std::string& s, std::initializer_list<const char*> options) {
-  return std::any_of(options.begin(), options.end(), [&](const char* o) { return s == o; });
-}
 
 // Factor from the file's units to bandstack's (m2 kg-1, or m2 kg-1 Pa-1 for the continuum); nullopt
 // for units we do not accept.
@@ -59,56 +43,6 @@ std::optional<double> coefficient_factor(Absorber a, const std::string& units) {
 
 const char* accepted_units(Absorber a) {
   return scales_with_vapour_pressure(a) ? "\"m2 kg-1 Pa-1\" or \"cm2 molecule-1 atm-1\"" : "\"m2 kg-1\" or \"cm2 molecule-1\"";
-}
-
-// A text attribute (NC_CHAR or NC_STRING) of variable `varid` (NC_GLOBAL for the file); nullopt if absent.
-std::optional<std::string> text_attribute(int ncid, int varid, const char* name, const std::string& file,
-                                          const std::string& item) {
-  nc_type type{};
-  std::size_t length = 0;
-  if (nc_inq_att(ncid, varid, name, &type, &length) != NC_NOERR) return std::nullopt;
-  std::string value;
-  if (type == NC_CHAR) {
-    value.assign(length, '\0');
-    if (length > 0 && nc_get_att_text(ncid, varid, name, value.data()) != NC_NOERR) fail(file, item, fmt::format("cannot read attribute '{}'", name));
-    while (!value.empty() && value.back() == '\0') value.pop_back();
-  } else if (type == NC_STRING && length >= 1) {
-    std::vector<char*> strings(length, nullptr);
-    if (nc_get_att_string(ncid, varid, name, strings.data()) != NC_NOERR) fail(file, item, fmt::format("cannot read attribute '{}'", name));
-    value = strings[0] ? strings[0] : "";
-    nc_free_string(length, strings.data());
-  } else {
-    fail(file, item, fmt::format("attribute '{}' must be text", name));
-  }
-  return value;
-}
-
-bool has_attribute(int ncid, int varid, const char* name) {
-  return nc_inq_attid(ncid, varid, name, nullptr) == NC_NOERR;
-}
-
-// The value that marks a missing datum in `var`: its _FillValue, else netCDF's default for its type.
-std::optional<double> fill_value(const netCDF::NcVar& var, int ncid) {
-  double value = 0.0;
-  if (has_attribute(ncid, var.getId(), "_FillValue") && nc_get_att_double(ncid, var.getId(), "_FillValue", &value) == NC_NOERR)
-    return value;
-  nc_type type{};
-  nc_inq_vartype(ncid, var.getId(), &type);
-  if (type == NC_DOUBLE) return NC_FILL_DOUBLE;
-  if (type == NC_FLOAT) return static_cast<double>(NC_FILL_FLOAT);
-  return std::nullopt;
-}
-
-bool numeric(int ncid, int varid) {
-  nc_type type{};
-  nc_inq_vartype(ncid, varid, &type);
-  return type == NC_DOUBLE || type == NC_FLOAT || type == NC_INT || type == NC_SHORT || type == NC_INT64 ||
-         type == NC_UINT || type == NC_USHORT || type == NC_UINT64 || type == NC_BYTE || type == NC_UBYTE;
-}
-
-void reject_packing(int ncid, const netCDF::NcVar& var, const std::string& file) {
-  if (has_attribute(ncid, var.getId(), "scale_factor") || has_attribute(ncid, var.getId(), "add_offset"))
-    fail(file, var.getName(), "packed data (scale_factor/add_offset) is not supported: write the values unpacked");
 }
 
 // Reads coordinate `name` (a 1-D variable on the dimension of the same name) in bandstack units.
@@ -226,7 +160,7 @@ CrossSectionTable read_cross_section_file(const std::filesystem::path& path) {
 
       std::vector<double> values(table.values_per_absorber());
       var.getVar(values.data());
-      if (const auto fill = fill_value(var, ncid)) {
+      if (const auto fill = fill_value(ncid, var.getId())) {
         const auto it = std::find(values.begin(), values.end(), *fill);
         if (it != values.end()) {
           const std::size_t i = static_cast<std::size_t>(it - values.begin());

@@ -59,12 +59,17 @@ struct BandRecipe {
 // The solar source of a shortwave set: a spectral irradiance proportional to the Planck function
 // B_nu(T_b(nu)) at a brightness temperature T_b that is `temperature_k` everywhere except between
 // the first and last of the optional nodes, where it is interpolated linearly in wavenumber between
-// them (to follow a measured spectrum, e.g. its ultraviolet deficit). Only the shape matters: the
-// solar weights are normalised to sum to 1 over the set.
+// them (to follow a measured spectrum, e.g. its ultraviolet deficit); or, with `spectrum_file`, the
+// spectral irradiance of a solar spectrum file (solar_spectrum.hpp), interpolated linearly to the
+// fine grid, which it must cover. Only the shape matters: the solar weights are normalised to sum to
+// 1 over the set.
 struct SolarRecipe {
-  double temperature_k = 5772.0;                   // K
+  double temperature_k = 5772.0;                   // K (unused with spectrum_file)
   std::vector<double> brightness_node_cm1;         // strictly increasing, or empty
   std::vector<double> brightness_node_k;           // same size, K
+  // key `spectrum_file` (resolved against the recipe's folder): the solar spectrum instead of the
+  // blackbody; excludes brightness nodes.
+  std::optional<std::filesystem::path> spectrum_file;
   bool rayleigh_scattering = true;                 // store Rayleigh cross-sections (rayleigh.hpp)
 
   // T_b at nu_cm1 (K).
