@@ -39,25 +39,9 @@ inline void layer_factors(double x, double& absorptance, double& linear_source) 
   throw InputError(place, message);
 }
 
-// One pass without early exit (so it vectorises); the slow search for the culprit runs only on
-// failure. `per_level` points share a level index in messages.
-BANDSTACK_VECTOR_CLONES
-double count_outside(const double* values, std::size_t size, double lo, double hi) {
-  // A double count vectorises with SSE2 (a bool or integer one does not); eight partial counts
-  // break the chain of dependent additions.
-  double bad[8] = {};
-  std::size_t m = 0;
-  for (; m + 8 <= size; m += 8)
-    for (std::size_t k = 0; k < 8; ++k)
-      bad[k] += (values[m + k] >= lo && values[m + k] <= hi) ? 0.0 : 1.0;
-  for (; m < size; ++m)
-    bad[0] += (values[m] >= lo && values[m] <= hi) ? 0.0 : 1.0;
-  return ((bad[0] + bad[1]) + (bad[2] + bad[3])) + ((bad[4] + bad[5]) + (bad[6] + bad[7]));
-}
-
 void check_range(std::span<const double> values, double lo, double hi, const char* item, std::size_t per_level,
                  const char* what) {
-  if (count_outside(values.data(), values.size(), lo, hi) == 0.0) return;
+  if (detail::count_outside(values.data(), values.size(), lo, hi) == 0.0) return;
   for (std::size_t m = 0; m < values.size(); ++m)
     if (!(values[m] >= lo && values[m] <= hi))
       fail(item, m / per_level, "value " + std::to_string(values[m]) + " at spectral point " +

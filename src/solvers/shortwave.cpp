@@ -21,24 +21,11 @@ namespace {
   throw InputError(InputPlace::of(item, layer), message);
 }
 
-// One pass without early exit (so it vectorises, as in longwave_many.cpp); the culprit is searched
-// for only on failure.
-BANDSTACK_VECTOR_CLONES
-double count_outside(const double* values, std::size_t size, double lo, double hi) {
-  double bad[8] = {};
-  std::size_t m = 0;
-  for (; m + 8 <= size; m += 8)
-    for (std::size_t k = 0; k < 8; ++k)
-      bad[k] += (values[m + k] >= lo && values[m + k] <= hi) ? 0.0 : 1.0;
-  for (; m < size; ++m)
-    bad[0] += (values[m] >= lo && values[m] <= hi) ? 0.0 : 1.0;
-  return ((bad[0] + bad[1]) + (bad[2] + bad[3])) + ((bad[4] + bad[5]) + (bad[6] + bad[7]));
-}
 
 // Values are [layer * points + g-point]; a failure names the layer (as the place) and the g-point.
 void check_range(std::span<const double> values, std::size_t points, double lo, double hi, const char* item,
                  const char* expected, bool per_layer) {
-  if (count_outside(values.data(), values.size(), lo, hi) == 0.0) return;
+  if (detail::count_outside(values.data(), values.size(), lo, hi) == 0.0) return;
   for (std::size_t m = 0; m < values.size(); ++m) {
     if (values[m] >= lo && values[m] <= hi) continue;
     const std::string what = "value " + std::to_string(values[m]) + " at g-point " + std::to_string(m % points) +

@@ -69,4 +69,10 @@ inline double vector_expm1(double y) noexcept {
   return e.scale * (e.r + e.r * (e.r * e.s)) + (e.scale - 1.0);
 }
 
+// How many of values[0..size) lie outside [lo, hi] (NaN counts as outside). One pass without early
+// exit, so that it vectorises; callers search for the culprit only when the count is not zero.
+// (The definition carries the instruction-set clones; the declaration must not, or every caller
+// emits its own resolver.)
+double count_outside(const double* values, std::size_t size, double lo, double hi);
+
 } // namespace bandstack::solvers::detail
