@@ -35,6 +35,8 @@
 #include "bandstack/solvers/shortwave_optics.hpp"
 #include "bandstack/solvers/shortwave_result.hpp"
 
+#include "bandstack/climate/climate.hpp"
+
 #include "bandstack/io/atomic_output.hpp"
 #include "bandstack/io/band_catalog.hpp"
 #include "bandstack/io/band_set_file.hpp"

@@ -1,0 +1,99 @@
+#pragma once
+// Radiative and radiative-convective equilibrium of one column.
+//
+// Unknowns: the temperatures of the radiative layers, plus the surface temperature when it comes
+// from the surface energy balance. Convective layers form one region reaching the ground (the only
+// kind an equilibrium has in practice; detached unstable layers are not represented by Newton's
+// method): they sit on the critical profile through the surface (surface air = skin temperature,
+// convective_adjustment.hpp) and so follow the surface temperature.
+// Residual: the radiative heating rate (K/day) of every radiative layer, and, with the surface
+// energy balance, the net radiative flux (W m-2) into the convective region plus the ground,
+//   F_region = surface_net + sum over convective layers c_p dp/g H / 86400,
+// which is the surface net flux when there is no convective layer (Manabe & Strickler 1964: the
+// convective region and the ground, which stores no heat, are in balance together).
+//
+// Newton's method: the Jacobian by forward finite differences, one radiative call per unknown
+// (about N+1 calls per iteration; e.g. 61 for a 60-layer column), solved by Eigen's dense LU with
+// partial pivoting; each step is capped at max_step_k and shortened by halving until a weighted
+// sum of squared residuals (heating over its tolerance, fluxes over theirs) decreases. After each
+// step the convective region is revised: it grows upward over every radiative layer colder than the
+// critical profile (unstable), and shrinks from its top while the top layer would be radiatively
+// heated once the region as a whole is in balance (upward convective flux cannot be negative).
+// If Newton fails, an explicit time march with an adaptive stable step takes over from its best
+// state (march_to_equilibrium).
+//
+// Converged when, in the final convective region, max |H| over radiative layers <= heating
+// tolerance and, with the surface energy balance, |TOA net flux| and |F_region| <= flux tolerance.
+// With a fixed surface temperature the TOA net flux is whatever the ground supplies and is not
+// tested. A column that does not converge raises ConvergenceError, never a silent answer.
+#include <string>
+#include <vector>
+
+#include "bandstack/atmosphere/column.hpp"
+#include "bandstack/climate/column_state.hpp"
+#include "bandstack/climate/convective_adjustment.hpp"
+#include "bandstack/climate/radiation.hpp"
+
+namespace bandstack::climate {
+
+enum class SurfaceTreatment {
+  energy_balance, // surface temperature solved for (net flux into the ground = 0)
+  fixed           // surface temperature kept at the starting column's value
+};
+
+struct TimeMarchingSettings {
+  long max_steps = 200000;
+  double initial_time_step_s = 21600.0;           // halved whenever a layer oscillates with growing amplitude
+  double max_time_step_s = 4.0 * 86400.0;
+  double surface_heat_capacity_j_m2_k = 4.2e6;    // the ground while marching (about 1 m of water)
+};
+
+struct EquilibriumSettings {
+  ConvectionSettings convection;                  // kind none: pure radiative equilibrium
+  SurfaceTreatment surface = SurfaceTreatment::energy_balance;
+  WaterSettings water;
+  double heating_tolerance_k_day = 1e-3;          // max |H| in radiative layers
+  double flux_tolerance_w_m2 = 0.01;              // |TOA net flux| and |F_region|
+  int max_newton_iterations = 40;                 // Jacobian evaluations
+  double jacobian_step_k = 1e-3;                  // forward-difference perturbation
+  double max_step_k = 30.0;                       // largest temperature change of one Newton step
+  bool time_marching_fallback = true;
+  TimeMarchingSettings marching;
+};
+
+enum class EquilibriumMethod { newton, time_marching };
+
+struct EquilibriumResult {
+  atmosphere::Column column;            // the equilibrium state (levels, water and surface set)
+  std::vector<double> heating_k_day;    // radiative heating of each layer at equilibrium, K/day
+  std::vector<bool> convective;         // per layer: in the convective region
+  double toa_net_w_m2 = 0.0;            // net downward flux at the top, W m-2
+  double surface_net_w_m2 = 0.0;        // net radiative flux into the ground, W m-2
+  double region_net_w_m2 = 0.0;         // F_region above, W m-2
+  double max_radiative_heating_k_day = 0.0; // max |H| over radiative layers
+  EquilibriumMethod method = EquilibriumMethod::newton;
+  int newton_iterations = 0;            // Jacobians evaluated
+  long time_steps = 0;                  // steps of the time march (0 if Newton succeeded)
+  long radiative_calls = 0;             // NetHeating calls, all methods together
+  bool converged = false;               // always true in a returned result (failures throw)
+  std::string newton_failure;           // why Newton handed over to the time march, if it did
+
+  // Pressure (Pa) of the top of the convective region (the level above its highest layer), or the
+  // surface pressure if there is no convective layer.
+  [[nodiscard]] double convective_top_pressure_pa() const;
+};
+
+// Equilibrium from `start` (its pressures, gases, surface properties and sun; its temperatures as
+// the first guess) with radiative heating from `radiation`. Throws InputError for bad settings or
+// column; ConvergenceError (naming the iterations and the residuals reached) if neither Newton nor
+// the time march (when allowed) converges.
+[[nodiscard]] EquilibriumResult solve_equilibrium(const atmosphere::Column& start, const NetHeating& radiation,
+                                                  const EquilibriumSettings& settings);
+
+// The time march alone: explicit steps T += dt H, T_s += dt F_s / C_s, then convective adjustment
+// (convective_adjustment.hpp, the ground joining with heat capacity C_s), until the same criteria
+// hold. Used as the fallback and as the yardstick in the benchmark. Throws like solve_equilibrium.
+[[nodiscard]] EquilibriumResult march_to_equilibrium(const atmosphere::Column& start, const NetHeating& radiation,
+                                                     const EquilibriumSettings& settings);
+
+} // namespace bandstack::climate

@@ -1,0 +1,66 @@
+#include "bandstack/climate/radiation.hpp"
+
+#include <cmath>
+#include <memory>
+
+#include "bandstack/core/error.hpp"
+#include "bandstack/solvers/band_longwave.hpp"
+#include "bandstack/solvers/band_shortwave.hpp"
+
+namespace bandstack::climate {
+
+NetHeating grey_net_heating(const solvers::GreyOptics& optics, const solvers::AngularQuadrature& angles,
+                            double surface_absorbed_solar_w_m2) {
+  if (!std::isfinite(surface_absorbed_solar_w_m2) || surface_absorbed_solar_w_m2 < 0.0)
+    throw InputError(InputPlace::of("surface_absorbed_solar"), "must be finite and >= 0 W m-2");
+  solvers::validate(angles);
+  return [optics, angles, solar = surface_absorbed_solar_w_m2](const atmosphere::Column& column,
+                                                               std::vector<double>& heating, double& toa_net,
+                                                               double& surface_net) {
+    const solvers::LongwaveResult lw = solvers::solve_grey_longwave(column, optics, angles);
+    heating = lw.heating_rate_k_day;
+    toa_net = solar - lw.olr();
+    surface_net = solar + lw.flux_down.back() - lw.flux_up.back();
+  };
+}
+
+namespace {
+
+struct BandTables {
+  solvers::BandOpticsTables longwave;
+  solvers::ShortwaveOpticsTables shortwave;
+};
+
+// Scratch of one callback copy; copying the callback copies it, so copies never share it.
+struct BandScratch {
+  solvers::BandLongwaveWorkspace lw_workspace;
+  solvers::BandShortwaveWorkspace sw_workspace;
+  solvers::LongwaveResult lw;
+  solvers::ShortwaveResult sw;
+};
+
+} // namespace
+
+NetHeating band_net_heating(const spectral::BandSet& longwave_set, const spectral::BandSet& shortwave_set,
+                            const solvers::AngularQuadrature& angles, double solar_constant_w_m2) {
+  if (!std::isfinite(solar_constant_w_m2) || solar_constant_w_m2 < 0.0)
+    throw InputError(InputPlace::of("solar_constant"), "must be finite and >= 0 W m-2");
+  solvers::validate(angles);
+  auto tables = std::make_shared<const BandTables>(BandTables{solvers::make_band_optics_tables(longwave_set),
+                                                              solvers::make_shortwave_optics_tables(shortwave_set)});
+  return [tables, angles, solar_constant_w_m2, scratch = BandScratch{}](const atmosphere::Column& column,
+                                                                        std::vector<double>& heating,
+                                                                        double& toa_net, double& surface_net) mutable {
+    solvers::solve_band_longwave(column, tables->longwave, angles, {}, scratch.lw_workspace, scratch.lw);
+    solvers::solve_band_shortwave(column, tables->shortwave, {}, solar_constant_w_m2, scratch.sw_workspace,
+                                  scratch.sw);
+    const std::size_t n = column.layer_count();
+    heating.resize(n);
+    for (std::size_t i = 0; i < n; ++i)
+      heating[i] = scratch.lw.heating_rate_k_day[i] + scratch.sw.heating_rate_k_day[i];
+    toa_net = scratch.sw.absorbed_solar() - scratch.lw.olr();
+    surface_net = scratch.sw.surface_absorbed() + scratch.lw.flux_down.back() - scratch.lw.flux_up.back();
+  };
+}
+
+} // namespace bandstack::climate
