@@ -60,7 +60,7 @@ int dispatch(int argc, char** argv) {
   CLI::App* bands = app.add_subcommand("bands", "Build or inspect band sets (k-distributions)");
   bands->require_subcommand(1);
   CLI::App* bands_build = bands->add_subcommand("build", "Build a band set from a recipe");
-  bands_build->add_option("recipe", o.recipe, "Build recipe (TOML file) or built-in name (default_lw, fine_lw)")->required();
+  bands_build->add_option("recipe", o.recipe, "Build recipe (TOML file) or built-in name (default_lw, fine_lw, default_sw)")->required();
   bands_build->add_option("-o,--output", o.band_set_path, "Band-set file to write (netCDF)")->required();
   CLI::App* bands_info = bands->add_subcommand("info", "Summarise a band set");
   bands_info->add_option("band_set", o.band_set_path, "Band-set file or built-in name")->required();
