@@ -41,6 +41,20 @@ void BM_GreyRceNewton(benchmark::State& state) {
 }
 BENCHMARK(BM_GreyRceNewton)->Unit(benchmark::kMillisecond);
 
+// Newton with a Jacobian differenced every step (no Broyden updates), for comparison.
+void BM_GreyRceNewtonEveryStepJacobian(benchmark::State& state) {
+  const auto column = start_column();
+  const auto rad = radiation();
+  climate::EquilibriumSettings s;
+  s.time_marching_fallback = false;
+  s.broyden_update = false;
+  climate::EquilibriumResult r;
+  for (auto _ : state) r = climate::solve_equilibrium(column, rad, s);
+  state.counters["radiative_calls"] = static_cast<double>(r.radiative_calls);
+  state.counters["newton_iterations"] = r.newton_iterations;
+}
+BENCHMARK(BM_GreyRceNewtonEveryStepJacobian)->Unit(benchmark::kMillisecond);
+
 void BM_GreyRceTimeMarching(benchmark::State& state) {
   const auto column = start_column();
   const auto rad = radiation();
@@ -49,6 +63,13 @@ void BM_GreyRceTimeMarching(benchmark::State& state) {
   for (auto _ : state) r = climate::march_to_equilibrium(column, rad, s);
   state.counters["radiative_calls"] = static_cast<double>(r.radiative_calls);
   state.counters["time_steps"] = static_cast<double>(r.time_steps);
+  // Calls of the time march over calls of Newton (with Broyden updates): the issue-5 ratio.
+  climate::EquilibriumSettings newton_settings = s;
+  newton_settings.time_marching_fallback = false;
+  const auto newton = climate::solve_equilibrium(column, rad, newton_settings);
+  state.counters["newton_radiative_calls"] = static_cast<double>(newton.radiative_calls);
+  state.counters["calls_ratio_march_over_newton"] =
+      static_cast<double>(r.radiative_calls) / static_cast<double>(newton.radiative_calls);
 }
 BENCHMARK(BM_GreyRceTimeMarching)->Unit(benchmark::kMillisecond);
 

@@ -48,11 +48,13 @@ public:
         if (direction != 0) {
           if (last_direction != 0 && direction != last_direction) ++reversals;
           last_direction = direction;
+          const Eigen::VectorXd x0 = full_state(), f0 = full_response(eval_);
           apply_region();
           if (!evaluate_state(column_, eval_)) {
             failure = "the revised convective region cannot be evaluated (" + last_error_ + ")";
             return false;
           }
+          moved(x0, f0);
           merit0 = merit(residual(eval_));
         }
       }
@@ -107,8 +109,8 @@ private:
       detail::set_state(column, t_, ts_, first_convective_ < n_, s_.water);
       evaluate_(column, e);
       return true;
-    } catch (const InputError& e) {
-      last_error_ = e.what();
+    } catch (const InputError& error) {
+      last_error_ = error.what();
       return false;
     }
   }
@@ -156,54 +158,145 @@ private:
     return first_convective_ != old ? 1 : 0;
   }
 
-  bool step(double& merit0, std::string& failure) {
-    const std::vector<double> y0 = unknowns();
-    const Eigen::VectorXd r0 = residual(eval_);
-    const std::size_t m = y0.size();
-    Eigen::MatrixXd jacobian(static_cast<Eigen::Index>(m), static_cast<Eigen::Index>(m));
+  // Full state x = (T_0 .. T_{N-1}, T_s) and full response f = (H_0 .. H_{N-1}, surface net flux).
+  Eigen::VectorXd full_state() const {
+    Eigen::VectorXd x(static_cast<Eigen::Index>(n_ + 1));
+    for (std::size_t i = 0; i < n_; ++i) x[static_cast<Eigen::Index>(i)] = t_[i];
+    x[static_cast<Eigen::Index>(n_)] = ts_;
+    return x;
+  }
+
+  Eigen::VectorXd full_response(const detail::Evaluation& e) const {
+    Eigen::VectorXd f(static_cast<Eigen::Index>(n_ + 1));
+    for (std::size_t i = 0; i < n_; ++i) f[static_cast<Eigen::Index>(i)] = e.heating_k_day[i];
+    f[static_cast<Eigen::Index>(n_)] = e.surface_net_w_m2;
+    return f;
+  }
+
+  // The Jacobian is kept for the full map x -> f, so that it stays meaningful when the convective
+  // region (and with it the set of unknowns) changes; the Newton matrix is A J B, with B the
+  // derivative of x with respect to the unknowns (convective layers follow T_s on the critical
+  // profile) and A the rows of the residual (F_region sums the convective layers' heating).
+  Eigen::MatrixXd newton_matrix() const {
+    const auto m = static_cast<Eigen::Index>(unknown_count());
+    const auto k = static_cast<Eigen::Index>(first_convective_);
+    const auto n = static_cast<Eigen::Index>(n_);
+    Eigen::MatrixXd b = Eigen::MatrixXd::Zero(n + 1, m);
+    Eigen::MatrixXd a = Eigen::MatrixXd::Zero(m, n + 1);
+    for (Eigen::Index i = 0; i < k; ++i) b(i, i) = a(i, i) = 1.0;
+    if (seb_) {
+      const double h = 1e-3; // K; the critical profile is smooth in T_s, no radiative call involved
+      const double cp = constants::specific_heat_dry_air_j_kg_k;
+      b(n, m - 1) = a(m - 1, n) = 1.0;
+      for (Eigen::Index i = k; i < n; ++i) {
+        const double p = column_.pressure_layer_pa[static_cast<std::size_t>(i)];
+        b(i, m - 1) = (critical_profile_temperature_k(s_.convection, ts_ + h, surface_p_, p, column_.gravity_m_s2) -
+                       critical_profile_temperature_k(s_.convection, ts_ - h, surface_p_, p, column_.gravity_m_s2)) / (2.0 * h);
+        a(m - 1, i) = cp * (column_.pressure_level_pa[static_cast<std::size_t>(i) + 1] - column_.pressure_level_pa[static_cast<std::size_t>(i)]) /
+                      column_.gravity_m_s2 / constants::seconds_per_day;
+      }
+    }
+    return a * jacobian_ * b;
+  }
+
+  // Forward differences of the full map at the current state: N + 1 radiative calls.
+  bool refresh_jacobian(std::string& failure) {
+    const Eigen::VectorXd f0 = full_response(eval_);
+    const std::vector<double> t0 = t_;
+    const double ts0 = ts_;
+    jacobian_ = Eigen::MatrixXd::Zero(static_cast<Eigen::Index>(n_ + 1), static_cast<Eigen::Index>(n_ + 1));
     atmosphere::Column trial_column = column_;
     detail::Evaluation trial;
-    for (std::size_t j = 0; j < m; ++j) {
-      std::vector<double> y = y0;
-      y[j] += s_.jacobian_step_k;
-      set_unknowns(y);
-      if (!evaluate_state(trial_column, trial)) {
-        set_unknowns(y0);
+    for (std::size_t j = 0; j <= n_; ++j) {
+      if (j < n_)
+        t_[j] += s_.jacobian_step_k;
+      else
+        ts_ += s_.jacobian_step_k;
+      const bool ok = evaluate_state(trial_column, trial);
+      t_ = t0;
+      ts_ = ts0;
+      if (!ok) {
         failure = fmt::format("the finite-difference Jacobian left the radiation's range (unknown {}: {})", j, last_error_);
         return false;
       }
-      jacobian.col(static_cast<Eigen::Index>(j)) = (residual(trial) - r0) / s_.jacobian_step_k;
+      jacobian_.col(static_cast<Eigen::Index>(j)) = (full_response(trial) - f0) / s_.jacobian_step_k;
     }
-    set_unknowns(y0);
-    Eigen::VectorXd dy = jacobian.partialPivLu().solve(-r0);
-    if (!dy.allFinite()) {
-      failure = "the Jacobian is singular";
-      return false;
+    have_jacobian_ = true;
+    fresh_jacobian_ = true;
+    return true;
+  }
+
+  // The current state moved from (x0, f0) to (x_, f_): Broyden's "good" rank-one update
+  // J += (df - J dx) dx^T / (dx^T dx) (Broyden 1965, Math. Comp. 19, eq. 4.12; from memory), the
+  // least change of J in the Frobenius norm that satisfies the secant condition J dx = df.
+  void moved(const Eigen::VectorXd& x0, const Eigen::VectorXd& f0) {
+    const Eigen::VectorXd x1 = full_state(), f1 = full_response(eval_);
+    if (!have_jacobian_ || !s_.broyden_update) {
+      have_jacobian_ = false;
+      return;
     }
-    const double largest = dy.cwiseAbs().maxCoeff();
-    if (largest > s_.max_step_k) dy *= s_.max_step_k / largest;
-    // Backtracking on the merit; a step that does not decrease it after 8 halvings is still taken
-    // (far from equilibrium the merit can rise before it falls), at most 4 times in a row.
-    double lambda = 1.0;
-    for (int halving = 0; halving <= 8; ++halving, lambda *= 0.5) {
-      std::vector<double> y = y0;
-      for (std::size_t j = 0; j < m; ++j) y[j] += lambda * dy[static_cast<Eigen::Index>(j)];
-      set_unknowns(y);
-      if (!evaluate_state(trial_column, trial)) continue;
-      const double mt = merit(residual(trial));
-      if (mt < (1.0 - 1e-4 * lambda) * merit0 || halving == 8) {
-        if (!(mt < merit0) && ++uphill_ > 4) {
-          failure = "the line search found no decrease of the residual";
-          return false;
+    const Eigen::VectorXd dx = x1 - x0;
+    const double dx2 = dx.squaredNorm();
+    if (!(dx2 > 0.0)) return;
+    jacobian_ += ((f1 - f0) - jacobian_ * dx) * (dx.transpose() / dx2);
+    fresh_jacobian_ = false;
+  }
+
+  // One Newton step with a backtracking line search on the merit. With an updated (not freshly
+  // differenced) Jacobian a step that fails the sufficient-decrease test after two halvings counts
+  // as a stalled update: the Jacobian is recomputed by differences and the step redone.
+  bool step(double& merit0, std::string& failure) {
+    if (!have_jacobian_) {
+      if (!refresh_jacobian(failure)) return false;
+      have_jacobian_ = true;
+    }
+    const std::vector<double> y0 = unknowns();
+    const Eigen::VectorXd r0 = residual(eval_);
+    const Eigen::VectorXd x0 = full_state(), f0 = full_response(eval_);
+    const std::size_t m = y0.size();
+    atmosphere::Column trial_column = column_;
+    detail::Evaluation trial;
+    for (;;) {
+      const bool fresh = fresh_jacobian_;
+      Eigen::VectorXd dy = newton_matrix().partialPivLu().solve(-r0);
+      if (!dy.allFinite()) {
+        if (!fresh) {
+          if (!refresh_jacobian(failure)) return false;
+          continue;
         }
-        if (mt < merit0) uphill_ = 0;
-        column_ = trial_column;
-        eval_ = trial;
-        merit0 = mt;
-        return true;
+        failure = "the Jacobian is singular";
+        return false;
       }
+      const double largest = dy.cwiseAbs().maxCoeff();
+      if (largest > s_.max_step_k) dy *= s_.max_step_k / largest;
+      // With a fresh Jacobian, a step that does not decrease the merit after 8 halvings is still
+      // taken (far from equilibrium the merit can rise before it falls), at most 4 times in a row.
+      const int halvings = fresh ? 8 : 2;
+      double lambda = 1.0;
+      for (int halving = 0; halving <= halvings; ++halving, lambda *= 0.5) {
+        std::vector<double> y = y0;
+        for (std::size_t j = 0; j < m; ++j) y[j] += lambda * dy[static_cast<Eigen::Index>(j)];
+        set_unknowns(y);
+        if (!evaluate_state(trial_column, trial)) continue;
+        const double mt = merit(residual(trial));
+        const bool decrease = mt < (1.0 - 1e-4 * lambda) * merit0;
+        if (decrease || (fresh && halving == 8)) {
+          if (!(mt < merit0) && ++uphill_ > 4) {
+            failure = "the line search found no decrease of the residual";
+            return false;
+          }
+          if (mt < merit0) uphill_ = 0;
+          column_ = trial_column;
+          eval_ = trial;
+          merit0 = mt;
+          moved(x0, f0);
+          return true;
+        }
+      }
+      set_unknowns(y0);
+      if (fresh) break;
+      if (!refresh_jacobian(failure)) return false;
     }
-    set_unknowns(y0);
     failure = "every trial step left the radiation's range (" + last_error_ + ")";
     return false;
   }
@@ -223,6 +316,9 @@ private:
   double best_merit_ = std::numeric_limits<double>::infinity();
   int uphill_ = 0;
   std::string last_error_;
+  Eigen::MatrixXd jacobian_;     // d(H_0 .. H_{N-1}, surface net)/d(T_0 .. T_{N-1}, T_s)
+  bool have_jacobian_ = false;
+  bool fresh_jacobian_ = false;  // differenced at the current state, not updated since
 };
 
 } // namespace

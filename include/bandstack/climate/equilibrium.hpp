@@ -12,10 +12,15 @@
 // which is the surface net flux when there is no convective layer (Manabe & Strickler 1964: the
 // convective region and the ground, which stores no heat, are in balance together).
 //
-// Newton's method: the Jacobian by forward finite differences, one radiative call per unknown
-// (about N+1 calls per iteration; e.g. 61 for a 60-layer column), solved by Eigen's dense LU with
-// partial pivoting; each step is capped at max_step_k and shortened by halving until a weighted
-// sum of squared residuals (heating over its tolerance, fluxes over theirs) decreases. After each
+// Newton's method: the Jacobian of all layer heating rates and the surface net flux with respect to
+// all layer temperatures and the surface temperature, by forward finite differences (N+1 radiative
+// calls, e.g. 61 for a 60-layer column), then, with broyden_update, corrected after every move by
+// Broyden's rank-one update (one call per step) and differenced afresh only when a step with the
+// updated Jacobian fails to decrease the merit after two halvings; without it, differenced every
+// step. The Newton matrix for the current unknowns follows from it by the chain rule, so a change
+// of the convective region costs no new Jacobian. Solved by Eigen's dense LU with partial
+// pivoting; each step is capped at max_step_k and shortened by halving until a weighted sum of
+// squared residuals (heating over its tolerance, fluxes over theirs) decreases. After each
 // step the convective region is revised: it grows upward over every radiative layer colder than the
 // critical profile (unstable), and shrinks from its top while the top layer would be radiatively
 // heated once the region as a whole is in balance (upward convective flux cannot be negative).
@@ -54,8 +59,9 @@ struct EquilibriumSettings {
   WaterSettings water;
   double heating_tolerance_k_day = 1e-3;          // max |H| in radiative layers
   double flux_tolerance_w_m2 = 0.01;              // |TOA net flux| and |F_region|
-  int max_newton_iterations = 40;                 // Jacobian evaluations
+  int max_newton_iterations = 40;                 // Newton steps
   double jacobian_step_k = 1e-3;                  // forward-difference perturbation
+  bool broyden_update = true;                     // rank-one updates instead of a new Jacobian each step
   double max_step_k = 30.0;                       // largest temperature change of one Newton step
   bool time_marching_fallback = true;
   TimeMarchingSettings marching;
@@ -72,7 +78,7 @@ struct EquilibriumResult {
   double region_net_w_m2 = 0.0;         // F_region above, W m-2
   double max_radiative_heating_k_day = 0.0; // max |H| over radiative layers
   EquilibriumMethod method = EquilibriumMethod::newton;
-  int newton_iterations = 0;            // Jacobians evaluated
+  int newton_iterations = 0;            // Newton steps taken
   long time_steps = 0;                  // steps of the time march (0 if Newton succeeded)
   long radiative_calls = 0;             // NetHeating calls, all methods together
   bool converged = false;               // always true in a returned result (failures throw)
