@@ -60,8 +60,8 @@ void read_limits(TomlReader& r, const toml::table& t, const std::string& prefix,
 void read_band(TomlReader& r, const toml::table& t, const std::string& prefix, AnalyticRecipe& recipe) {
   r.reject_unknown_keys(t, prefix,
                         {"kind", "name", "absorber", "center_cm1", "kappa_m2_per_kg", "decay_lower_cm1", "decay_upper_cm1",
-                         "lower_cm1", "upper_cm1", "reference_pressure_pa", "pressure_exponent", "reference_temperature_k",
-                         "temperature_exponent"});
+                         "lower_cm1", "upper_cm1", "reference_pressure_pa", "pressure_exponent", "minimum_pressure_pa",
+                         "reference_temperature_k", "temperature_exponent"});
   ExponentialBand band;
   band.name = r.string(t, prefix, "name").value_or("");
   const auto absorber = read_absorber(r, t, prefix);
@@ -78,6 +78,7 @@ void read_band(TomlReader& r, const toml::table& t, const std::string& prefix, A
   if (auto v = number_or_inf(r, t, prefix, "decay_upper_cm1", 0.0)) band.decay_upper_cm1 = *v;
   if (auto v = r.number(t, prefix, "reference_pressure_pa", tiny, 1e9)) band.reference_pressure_pa = *v;
   if (auto v = r.number(t, prefix, "pressure_exponent", 0.0, 4.0)) band.pressure_exponent = *v;
+  if (auto v = r.number(t, prefix, "minimum_pressure_pa", 0.0, 1e9)) band.minimum_pressure_pa = *v;
   if (t.get("temperature_exponent")) {
     require(r, t, prefix, "reference_temperature_k");
     if (auto v = r.number(t, prefix, "temperature_exponent", -50.0, 50.0)) band.temperature_exponent = *v;

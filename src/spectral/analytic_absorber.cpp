@@ -68,6 +68,7 @@ std::vector<Segment> band_segments(const ExponentialBand& b) {
   base.nu_ref_cm1 = b.center_cm1;
   base.p_ref_pa = b.reference_pressure_pa;
   base.p_exponent = b.pressure_exponent;
+  base.p_min_pa = b.minimum_pressure_pa;
   base.t_ref_k = b.reference_temperature_k;
   base.t_exponent = b.temperature_exponent;
   if (b.kappa_m2_kg <= 0.0) return out;
@@ -145,7 +146,10 @@ std::vector<Segment> continuum_segments(const SelfContinuum& c) {
 double state_factor(const Segment& s, const AbsorberState& state) {
   if (s.continuum) return std::exp(s.t0_k * (1.0 / state.temperature_k - 1.0 / s.t_ref_k));
   if (s.p_exponent == 0.0 && s.t_exponent == 0.0) return 1.0;
-  double f = s.p_exponent == 1.0 ? state.pressure_pa / s.p_ref_pa : std::pow(state.pressure_pa / s.p_ref_pa, s.p_exponent);
+  // Below p_min the Doppler width exceeds the Lorentz width, so lines stop narrowing with pressure
+  // (Goody & Yung 1989, Atmospheric Radiation, ch. 3; from memory).
+  const double p = std::max(state.pressure_pa, s.p_min_pa);
+  double f = s.p_exponent == 1.0 ? p / s.p_ref_pa : std::pow(p / s.p_ref_pa, s.p_exponent);
   if (s.t_exponent != 0.0) f *= std::pow(state.temperature_k / s.t_ref_k, s.t_exponent);
   return f;
 }
@@ -193,6 +197,8 @@ void check_recipe(const AnalyticRecipe& recipe) {
     if (!(b.decay_lower_cm1 >= 0.0) || !(b.decay_upper_cm1 >= 0.0)) fail(b.name, "decay widths must be >= 0 (or inf)");
     if (!(b.reference_pressure_pa > 0.0) || !std::isfinite(b.reference_pressure_pa))
       fail(b.name, "reference pressure must be positive and finite");
+    if (!(b.minimum_pressure_pa >= 0.0) || !std::isfinite(b.minimum_pressure_pa))
+      fail(b.name, "minimum pressure must be finite and >= 0 (0: no floor)");
     if (!(b.reference_temperature_k > 0.0) || !std::isfinite(b.pressure_exponent) || !std::isfinite(b.temperature_exponent))
       fail(b.name, "reference temperature must be positive, exponents finite");
     if (!(b.upper_cm1 > b.lower_cm1) || !(b.lower_cm1 >= 0.0)) fail(b.name, "limits must satisfy 0 <= lower < upper");

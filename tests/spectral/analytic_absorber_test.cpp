@@ -69,11 +69,11 @@ pressure_exponent = 1.0
 TEST(ShippedRecipe, ParsesWithNameVersionAndDescription) {
   const auto& r = shipped();
   EXPECT_EQ(r.name, "earth_idealised_absorbers");
-  EXPECT_EQ(r.version, 2);
+  EXPECT_EQ(r.version, 3);
   EXPECT_EQ(r.bands.size(), 7u);
   EXPECT_EQ(r.continua.size(), 1u);
   const bs::AnalyticAbsorber absorber(r);
-  EXPECT_EQ(absorber.description(), "analytic recipe earth_idealised_absorbers v2 (" + recipe_path + ")");
+  EXPECT_EQ(absorber.description(), "analytic recipe earth_idealised_absorbers v3 (" + recipe_path + ")");
   for (bs::Absorber a : bs::all_absorbers) EXPECT_TRUE(absorber.provides(a)) << bs::absorber_name(a);
 }
 
@@ -144,6 +144,54 @@ TEST(ShippedRecipe, Co2BandFollowsTheExponentialForm) {
   EXPECT_NEAR(kappa_at(a, bs::Absorber::co2, 667.5 + 10.2, 1e4, 250.0), 110.0 / std::exp(1.0), 1e-12);
   EXPECT_NEAR(kappa_at(a, bs::Absorber::co2, 667.5 - 2 * 10.2, 1e4, 250.0), 110.0 / std::exp(2.0), 1e-12);
   EXPECT_NEAR(kappa_at(a, bs::Absorber::co2, 667.5, 5e3, 250.0), 55.0, 1e-12);
+}
+
+TEST(AnalyticAbsorber, MinimumPressureFloorsThePressureFactor) {
+  // kappa = kappa_0 (max(p, p_min)/p_ref)^n (docs/absorber-recipe.md): with kappa_0 = 110 m2/kg,
+  // p_ref = 100 hPa, n = 1 and p_min = 500 Pa, kappa at the centre is 110 * 500/1e4 = 5.5 m2/kg at
+  // and below 500 Pa, and follows p above it (analytic).
+  std::string floored = co2_band;
+  floored += "minimum_pressure_pa = 500.0\n";
+  const bs::AnalyticRecipe r = bs::parse_absorber_recipe(recipe_text(floored), "r.toml");
+  ASSERT_EQ(r.bands.size(), 1u);
+  EXPECT_EQ(r.bands[0].minimum_pressure_pa, 500.0);
+  const bs::AnalyticAbsorber a(r);
+  const double at_floor = kappa_at(a, bs::Absorber::co2, 667.5, 500.0, 220.0);
+  EXPECT_NEAR(at_floor, 5.5, 1e-12);
+  EXPECT_EQ(kappa_at(a, bs::Absorber::co2, 667.5, 100.0, 220.0), at_floor);
+  EXPECT_EQ(kappa_at(a, bs::Absorber::co2, 667.5, 1.0, 220.0), at_floor);
+  EXPECT_NEAR(kappa_at(a, bs::Absorber::co2, 667.5, 2000.0, 220.0), 22.0, 1e-12);
+  EXPECT_NEAR(kappa_at(a, bs::Absorber::co2, 667.5 + 10.2, 100.0, 220.0), 5.5 / std::exp(1.0), 1e-12);
+  // With n = 2 the floor applies before the exponent: 110 (500/1e4)^2 = 0.275 m2/kg (analytic).
+  std::string squared = floored;
+  squared.replace(squared.find("pressure_exponent = 1.0"), 23, "pressure_exponent = 2.0");
+  const bs::AnalyticAbsorber a2(bs::parse_absorber_recipe(recipe_text(squared), "r.toml"));
+  EXPECT_NEAR(kappa_at(a2, bs::Absorber::co2, 667.5, 50.0, 220.0), 0.275, 1e-12);
+  // Default 0: no floor, kappa = 110 * 10/1e4 = 0.11 m2/kg at 10 Pa (analytic).
+  const bs::AnalyticAbsorber plain(bs::parse_absorber_recipe(recipe_text(co2_band), "r.toml"));
+  EXPECT_NEAR(kappa_at(plain, bs::Absorber::co2, 667.5, 10.0, 220.0), 0.11, 1e-12);
+  // A negative floor is an input error, in the file and in code.
+  std::string negative = co2_band + "minimum_pressure_pa = -1.0\n";
+  EXPECT_NE(message_of(recipe_text(negative)).find("'feature[0].minimum_pressure_pa'"), std::string::npos);
+  bs::AnalyticRecipe coded = r;
+  coded.bands[0].minimum_pressure_pa = -1.0;
+  EXPECT_THROW(bs::AnalyticAbsorber{coded}, bandstack::InputError);
+}
+
+TEST(ShippedRecipe, StratosphericBandsHaveADopplerFloor) {
+  // p_min = p0 alpha_D / gamma0 with alpha_D = (nu/c) sqrt(2 k T ln2 / m), gamma0 = 0.07 cm-1 atm-1
+  // (common practice), T = 220 K (Goody & Yung 1989, from memory): 774 Pa for CO2 at 667.5 cm-1.
+  // Checked to the 2-digit rounding of the recipe.
+  constexpr double k_b = 1.380649e-23, c = 2.99792458e8, amu = 1.66053907e-27; // CODATA (from memory)
+  const double alpha_d = 667.5 / c * std::sqrt(2.0 * k_b * 220.0 * std::log(2.0) / (44.01 * amu));
+  const double p_min = 101325.0 * alpha_d / 0.07;
+  EXPECT_NEAR(band_named(shipped(), "co2_15um").minimum_pressure_pa, p_min, 0.01 * p_min);
+  const bs::AnalyticAbsorber a(shipped());
+  const double floor_kappa = kappa_at(a, bs::Absorber::co2, 667.5, 770.0, 220.0);
+  EXPECT_EQ(kappa_at(a, bs::Absorber::co2, 667.5, 10.0, 220.0), floor_kappa);
+  EXPECT_GT(kappa_at(a, bs::Absorber::o3, 1042.0, 10.0, 220.0), 0.0);
+  EXPECT_EQ(kappa_at(a, bs::Absorber::o3, 1042.0, 10.0, 220.0), kappa_at(a, bs::Absorber::o3, 1042.0, 1200.0, 220.0));
+  EXPECT_EQ(band_named(shipped(), "ch4_7.7um").minimum_pressure_pa, 0.0);
 }
 
 TEST(ShippedRecipe, WaterRotationalBandAndItsFlatLowerSide) {

@@ -2,8 +2,9 @@
 // The embedded analytic absorber recipe: idealised absorption features (exponential bands and the
 // water-vapour self-continuum) read from a TOML text file in bands/ (docs/absorber-recipe.md).
 //
-//   exponential band: kappa(nu, p, T) = kappa_ref * (p/p_ref)^n * (T/T_ref)^m * exp(-|nu - nu_c| / l)
+//   exponential band: kappa(nu, p, T) = kappa_ref * (max(p, p_min)/p_ref)^n * (T/T_ref)^m * exp(-|nu - nu_c| / l)
 //                     with l = decay_lower_cm1 below the centre and decay_upper_cm1 above it
+//                     (p_min = minimum_pressure_pa, 0 = no floor: below it lines stop narrowing),
 //                     (l = 0: no absorption on that side; l = inf: flat, kappa_ref, on that side),
 //                     and zero outside [lower_cm1, upper_cm1].           kappa in m2 kg-1 of the gas
 //   gaussian band:    kappa(nu) = kappa_peak * exp(-(nu - nu_c)^2 / (2 s^2))
@@ -36,6 +37,7 @@ struct ExponentialBand {
   double upper_cm1 = std::numeric_limits<double>::infinity();
   double reference_pressure_pa = 0.0;  // p_ref
   double pressure_exponent = 1.0;      // n (1 = pressure broadening of the line wings)
+  double minimum_pressure_pa = 0.0;    // p_min: pressures below it count as p_min (0 = no floor)
   double reference_temperature_k = 296.0; // T_ref (only used when temperature_exponent != 0)
   double temperature_exponent = 0.0;   // m
 };
@@ -90,7 +92,7 @@ namespace detail {
 // One piece of a feature, precomputed by AnalyticAbsorber: on nu in [lower_cm1, upper_cm1) (or
 // [lower_cm1, upper_cm1] if upper_inclusive),
 // kappa = amplitude * F(state) * exp(slope_cm * (nu - nu_ref_cm1) + curvature_cm2 * (nu - nu_ref_cm1)^2)
-// with F = (p/p_ref)^p_exponent (T/t_ref)^t_exponent for bands, exp(t0 (1/T - 1/t_ref)) for the continuum.
+// with F = (max(p, p_min)/p_ref)^p_exponent (T/t_ref)^t_exponent for bands, exp(t0 (1/T - 1/t_ref)) for the continuum.
 struct SpectralSegment {
   double lower_cm1 = 0.0, upper_cm1 = 0.0;
   bool upper_inclusive = false;
@@ -98,7 +100,7 @@ struct SpectralSegment {
   double nu_ref_cm1 = 0.0, slope_cm = 0.0;
   double curvature_cm2 = 0.0; // -1 / (2 s^2) for a Gaussian half, 0 otherwise
   bool continuum = false;
-  double p_ref_pa = 1.0, p_exponent = 0.0, t_ref_k = 296.0, t_exponent = 0.0, t0_k = 0.0;
+  double p_ref_pa = 1.0, p_exponent = 0.0, p_min_pa = 0.0, t_ref_k = 296.0, t_exponent = 0.0, t0_k = 0.0;
 };
 } // namespace detail
 
