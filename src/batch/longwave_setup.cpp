@@ -69,18 +69,21 @@ LongwaveSetup prepare_longwave(const io::Study& study) {
   return setup;
 }
 
-solvers::LongwaveResult solve_longwave(const io::Study& study, const LongwaveSetup& setup, const atmosphere::Column& column) {
+std::size_t longwave_band_count(const LongwaveSetup& setup) { return setup.band_set ? setup.band_set->band_count() : 0; }
+
+solvers::LongwaveResult solve_longwave(const io::Study& study, const LongwaveSetup& setup, const atmosphere::Column& column,
+                                       std::span<const double> surface_emissivity_by_band) {
   switch (study.longwave.method) {
   case io::LongwaveMethod::grey: return solvers::solve_grey_longwave(column, study.longwave.grey, setup.angles);
   case io::LongwaveMethod::bands: {
     solvers::BandLongwaveWorkspace workspace;
     solvers::LongwaveResult result;
-    solvers::solve_band_longwave(column, *setup.tables, setup.angles, {}, workspace, result);
+    solvers::solve_band_longwave(column, *setup.tables, setup.angles, surface_emissivity_by_band, workspace, result);
     return result;
   }
   case io::LongwaveMethod::reference:
     return solvers::solve_reference_longwave(column, *setup.absorbers, setup.reference_grid, setup.band_edges_cm1,
-                                             setup.angles);
+                                             setup.angles, surface_emissivity_by_band);
   }
   throw InternalError("unknown longwave method");
 }

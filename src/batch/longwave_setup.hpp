@@ -3,6 +3,7 @@
 // set, absorber source), loaded once before the parallel loop and then only read.
 #include <memory>
 #include <optional>
+#include <span>
 #include <string>
 #include <vector>
 
@@ -30,7 +31,12 @@ struct LongwaveSetup {
 [[nodiscard]] LongwaveSetup prepare_longwave(const io::Study& study);
 
 // Longwave fluxes of one column with the prepared setup. Thread-safe: only reads `setup`.
+// surface_emissivity_by_band: empty, or one value per band (checked by check_band_properties).
 [[nodiscard]] solvers::LongwaveResult solve_longwave(const io::Study& study, const LongwaveSetup& setup,
-                                                     const atmosphere::Column& column);
+                                                     const atmosphere::Column& column,
+                                                     std::span<const double> surface_emissivity_by_band = {});
+
+// The number of longwave bands the setup resolves (0 for grey).
+[[nodiscard]] std::size_t longwave_band_count(const LongwaveSetup& setup);
 
 } // namespace bandstack::batch

@@ -43,15 +43,34 @@ std::vector<atmosphere::Column> build_columns(const io::Study& study) {
 
 namespace {
 
+// Per-band surface properties must match the band sets the study uses.
+void check_band_properties(const io::Study& study, const LongwaveSetup& lw, const ShortwaveSetup& sw) {
+  const std::size_t n_lw = longwave_band_count(lw);
+  const std::size_t n_sw = sw.band_set ? sw.band_set->band_count() : 0;
+  for (std::size_t c = 0; c < study.columns.size(); ++c) {
+    const io::ColumnSpec& spec = study.columns[c];
+    const auto check = [&](const std::vector<double>& values, std::size_t bands, const char* key, const char* what) {
+      if (values.empty() || values.size() == bands) return;
+      InputPlace place{study.source_file, fmt::format("columns[{}].{}", c, key), {}, {}, static_cast<long>(c), {}};
+      throw InputError(place, bands == 0 ? fmt::format("needs a {} band set (the study's {} method has no bands)", what, what)
+                                         : fmt::format("has {} values, but the {} band set has {} bands", values.size(), what, bands));
+    };
+    check(spec.surface_emissivity_by_band, n_lw, "surface_emissivity_by_band", "longwave");
+    check(spec.surface_albedo_by_band, n_sw, "surface_albedo_by_band", "shortwave");
+  }
+}
+
 std::vector<ColumnResult> compute_with(const io::Study& study, const LongwaveSetup& setup, const ShortwaveSetup& sw_setup,
                                        const std::vector<atmosphere::Column>& columns, std::size_t threads) {
+  check_band_properties(study, setup, sw_setup);
   std::vector<ColumnResult> results(columns.size());
   auto work = [&] {
     tbb::parallel_for(std::size_t{0}, columns.size(), [&](std::size_t c) {
       results[c].column = columns[c];
       try {
-        results[c].longwave = solve_longwave(study, setup, columns[c]);
-        results[c].shortwave = solve_shortwave(sw_setup, columns[c]);
+        const io::ColumnSpec& spec = study.columns[c];
+        results[c].longwave = solve_longwave(study, setup, columns[c], spec.surface_emissivity_by_band);
+        results[c].shortwave = solve_shortwave(sw_setup, columns[c], spec.surface_albedo_by_band);
       } catch (const InputError& e) {
         throw InputError(InputPlace{study.source_file, fmt::format("columns[{}] \"{}\"", c, columns[c].name), {}, {},
                                     static_cast<long>(c), {}},
@@ -72,8 +91,7 @@ std::vector<ColumnResult> compute_with(const io::Study& study, const LongwaveSet
 
 std::vector<atmosphere::Column> check_study(const io::Study& study) {
   std::vector<atmosphere::Column> columns = build_columns(study);
-  (void)prepare_longwave(study);
-  (void)prepare_shortwave(study);
+  check_band_properties(study, prepare_longwave(study), prepare_shortwave(study));
   return columns;
 }
 

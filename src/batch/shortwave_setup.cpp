@@ -32,11 +32,12 @@ ShortwaveSetup prepare_shortwave(const io::Study& study) {
   return setup;
 }
 
-solvers::ShortwaveResult solve_shortwave(const ShortwaveSetup& setup, const atmosphere::Column& column) {
+solvers::ShortwaveResult solve_shortwave(const ShortwaveSetup& setup, const atmosphere::Column& column,
+                                         std::span<const double> surface_albedo_by_band) {
   solvers::ShortwaveResult result;
   if (!setup.tables) return result;
   solvers::BandShortwaveWorkspace workspace;
-  solvers::solve_band_shortwave(column, *setup.tables, {}, setup.solar_constant_w_m2, workspace, result);
+  solvers::solve_band_shortwave(column, *setup.tables, surface_albedo_by_band, setup.solar_constant_w_m2, workspace, result);
   return result;
 }
 

@@ -1,6 +1,7 @@
 #pragma once
 // Private to batch: what the shortwave computation of every column shares, loaded once.
 #include <optional>
+#include <span>
 #include <string>
 
 #include "bandstack/atmosphere/column.hpp"
@@ -23,6 +24,8 @@ struct ShortwaveSetup {
 [[nodiscard]] ShortwaveSetup prepare_shortwave(const io::Study& study);
 
 // Shortwave fluxes of one column; an empty result when the setup is empty. Only reads `setup`.
-[[nodiscard]] solvers::ShortwaveResult solve_shortwave(const ShortwaveSetup& setup, const atmosphere::Column& column);
+// surface_albedo_by_band: empty, or one value per band (checked by check_band_properties).
+[[nodiscard]] solvers::ShortwaveResult solve_shortwave(const ShortwaveSetup& setup, const atmosphere::Column& column,
+                                                       std::span<const double> surface_albedo_by_band = {});
 
 } // namespace bandstack::batch

@@ -95,7 +95,8 @@ ColumnSpec read_column(TomlReader& r, const toml::table& t, std::size_t i) {
   r.reject_unknown_keys(t, prefix,
                         {"name", "profile", "surface_temperature_k", "surface_relative_humidity", "stratospheric_h2o_ppmv",
                          "co2_ppmv", "ch4_ppmv", "n2o_ppmv", "ozone_scale", "surface_emissivity", "surface_albedo",
-                         "cos_zenith", "latitude_deg", "day_of_year", "local_solar_time_h"});
+                         "cos_zenith", "latitude_deg", "day_of_year", "local_solar_time_h", "surface_emissivity_by_band",
+                         "surface_albedo_by_band"});
   ColumnSpec spec;
   spec.name = r.string(t, prefix, "name").value_or(fmt::format("column_{}", i));
   atmosphere::ProfileSettings& s = spec.settings;
@@ -116,6 +117,8 @@ ColumnSpec read_column(TomlReader& r, const toml::table& t, std::size_t i) {
   if (auto v = r.number(t, prefix, "surface_emissivity", 0.0, 1.0)) s.surface_emissivity = *v;
   if (auto v = r.number(t, prefix, "surface_albedo", 0.0, 1.0)) s.surface_albedo = *v;
   read_sun(r, t, prefix, spec.sun);
+  spec.surface_emissivity_by_band = r.number_array(t, prefix, "surface_emissivity_by_band", 0.0, 1.0);
+  spec.surface_albedo_by_band = r.number_array(t, prefix, "surface_albedo_by_band", 0.0, 1.0);
   return spec;
 }
 

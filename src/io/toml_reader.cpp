@@ -57,6 +57,32 @@ std::optional<std::string> TomlReader::string(const toml::table& table, const st
   return node->as_string()->get();
 }
 
+std::vector<double> TomlReader::number_array(const toml::table& table, const std::string& prefix, const std::string& key,
+                                            double lo, double hi) {
+  std::vector<double> values;
+  const toml::node* node = table.get(key);
+  if (!node) return values;
+  const std::string name = full_key(prefix, key);
+  if (!node->is_array()) {
+    problem(node->source(), name, "expected an array of numbers, e.g. [0.98, 0.95]");
+    return values;
+  }
+  std::size_t i = 0;
+  for (const toml::node& element : *node->as_array()) {
+    const std::string item = fmt::format("{}[{}]", name, i++);
+    if (!element.is_number()) {
+      problem(element.source(), item, "expected a number");
+      continue;
+    }
+    const double value = element.is_integer() ? static_cast<double>(element.as_integer()->get()) : element.as_floating_point()->get();
+    if (!std::isfinite(value) || value < lo || value > hi)
+      problem(element.source(), item, fmt::format("value {} is outside the allowed range [{}, {}]", value, lo, hi));
+    else
+      values.push_back(value);
+  }
+  return values;
+}
+
 const toml::table* TomlReader::table(const toml::table& parent, const std::string& prefix, const std::string& key) {
   const toml::node* node = parent.get(key);
   if (!node) return nullptr;

@@ -21,6 +21,9 @@ public:
   std::optional<long long> integer(const toml::table& table, const std::string& prefix, const std::string& key,
                                    long long lo, long long hi);
   std::optional<std::string> string(const toml::table& table, const std::string& prefix, const std::string& key);
+  // An array of numbers, each in [lo, hi]; absent gives an empty vector.
+  std::vector<double> number_array(const toml::table& table, const std::string& prefix, const std::string& key, double lo,
+                                   double hi);
   // A sub-table; absent gives nullptr; another type is a problem.
   const toml::table* table(const toml::table& table, const std::string& prefix, const std::string& key);
   // An array of tables ([[key]]); absent gives an empty vector.

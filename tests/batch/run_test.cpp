@@ -47,3 +47,47 @@ TEST(Run, BadColumnIsNamedInTheError) {
 
 } // namespace
 } // namespace bandstack::batch
+
+namespace bandstack::batch {
+namespace {
+
+// Kirchhoff: a per-band emissivity equal to the broadband value in every band changes nothing, and a
+// per-band albedo likewise (the solvers treat each band independently; exact).
+TEST(Run, UniformPerBandSurfacePropertiesEqualTheBroadbandOnes) {
+  io::Study study = io::parse_study("[[columns]]\nname = \"a\"\nprofile = \"midlatitude_summer\"\nsurface_emissivity = 0.95\n"
+                                    "surface_albedo = 0.2\nlatitude_deg = 40\nday_of_year = 172\n",
+                                    "s.toml");
+  const auto columns = build_columns(study);
+  const auto broadband = compute_columns(study, columns, 1);
+  study.columns[0].surface_emissivity_by_band.assign(broadband[0].longwave.band_count(), 0.95);
+  study.columns[0].surface_albedo_by_band.assign(broadband[0].shortwave.band_count(), 0.2);
+  const auto by_band = compute_columns(study, columns, 1);
+  EXPECT_TRUE(bit_identical(broadband[0].longwave.flux_up, by_band[0].longwave.flux_up));
+  EXPECT_TRUE(bit_identical(broadband[0].shortwave.flux_up, by_band[0].shortwave.flux_up));
+  // A different emissivity in one band changes the surface upward flux in that band only.
+  study.columns[0].surface_emissivity_by_band[5] = 0.5;
+  const auto changed = compute_columns(study, columns, 1);
+  const std::size_t levels = columns[0].level_count();
+  for (std::size_t b = 0; b < changed[0].longwave.band_count(); ++b) {
+    const double before = broadband[0].longwave.flux_up_by_band[b * levels + levels - 1];
+    const double after = changed[0].longwave.flux_up_by_band[b * levels + levels - 1];
+    if (b == 5) EXPECT_LT(after, before);
+    else EXPECT_EQ(after, before) << b;
+  }
+}
+
+TEST(Run, PerBandSurfacePropertiesMustMatchTheBandSets) {
+  io::Study study = io::parse_study("[[columns]]\nprofile = \"tropical\"\nsurface_emissivity_by_band = [0.9, 0.9]\n", "s.toml");
+  try {
+    (void)check_study(study);
+    FAIL() << "expected an InputError";
+  } catch (const InputError& e) {
+    EXPECT_NE(std::string(e.what()).find("columns[0].surface_emissivity_by_band"), std::string::npos) << e.what();
+    EXPECT_NE(std::string(e.what()).find("has 2 values, but the longwave band set has 16 bands"), std::string::npos) << e.what();
+  }
+  study.longwave.method = io::LongwaveMethod::grey;
+  EXPECT_THROW((void)check_study(study), InputError);
+}
+
+} // namespace
+} // namespace bandstack::batch

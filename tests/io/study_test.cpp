@@ -122,3 +122,22 @@ TEST(Study, DemoStudyParses) {
 
 } // namespace
 } // namespace bandstack::io
+
+namespace bandstack::io {
+namespace {
+
+TEST(Study, PerBandSurfacePropertiesAreArraysInRange) {
+  const Study s = parse_study("[[columns]]\nprofile = \"tropical\"\nsurface_emissivity_by_band = [0.98, 1, 0.95]\n"
+                              "surface_albedo_by_band = [0.1, 0.2]\n",
+                              "s.toml");
+  EXPECT_EQ(s.columns[0].surface_emissivity_by_band, (std::vector<double>{0.98, 1.0, 0.95}));
+  EXPECT_EQ(s.columns[0].surface_albedo_by_band, (std::vector<double>{0.1, 0.2}));
+  const std::string msg = problems_of("[[columns]]\nprofile = \"tropical\"\nsurface_emissivity_by_band = [0.9, 1.2, \"x\"]\n"
+                                      "surface_albedo_by_band = 0.3\n");
+  EXPECT_NE(msg.find("'columns[0].surface_emissivity_by_band[1]': value 1.2"), std::string::npos) << msg;
+  EXPECT_NE(msg.find("'columns[0].surface_emissivity_by_band[2]': expected a number"), std::string::npos) << msg;
+  EXPECT_NE(msg.find("'columns[0].surface_albedo_by_band': expected an array"), std::string::npos) << msg;
+}
+
+} // namespace
+} // namespace bandstack::io

@@ -29,6 +29,10 @@ struct ColumnSpec {
   std::string name;
   atmosphere::ProfileSettings settings;
   SunSpec sun;
+  // Optional per-band surface properties; empty = the broadband value in every band. When given,
+  // one value per band of the longwave (emissivity) or shortwave (albedo) band set.
+  std::vector<double> surface_emissivity_by_band;
+  std::vector<double> surface_albedo_by_band;
 };
 
 enum class AngleMethod { gauss, diffusivity };
