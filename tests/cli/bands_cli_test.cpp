@@ -68,21 +68,7 @@ double read_olr(const fs::path& path) {
   return value;
 }
 
-class BandsCli : public ::testing::Test {
-protected:
-  void SetUp() override {
-    dir_ = fs::temp_directory_path() / ("bandstack_bands_cli_" + std::to_string(::getpid()) + "_" +
-                                        ::testing::UnitTest::GetInstance()->current_test_info()->name());
-    fs::remove_all(dir_);
-    fs::create_directories(dir_);
-  }
-  void TearDown() override { fs::remove_all(dir_); }
-  fs::path write(const std::string& name, const std::string& text) {
-    std::ofstream(dir_ / name) << text;
-    return dir_ / name;
-  }
-  fs::path dir_;
-};
+class BandsCli : public bandstack::testing::ScratchFolderTest {};
 
 TEST_F(BandsCli, BuildDefaultThenInfoDescribesIt) {
   const fs::path set = dir_ / "X.nc";

@@ -16,20 +16,7 @@ namespace fs = std::filesystem;
 using bandstack::testing::invoke;
 using bandstack::testing::Outcome;
 
-class Cli : public ::testing::Test {
-protected:
-  void SetUp() override {
-    dir_ = fs::temp_directory_path() / (std::string("bandstack_cli_") + ::testing::UnitTest::GetInstance()->current_test_info()->name());
-    fs::remove_all(dir_);
-    fs::create_directories(dir_);
-  }
-  void TearDown() override { fs::remove_all(dir_); }
-  fs::path write(const std::string& name, const std::string& text) {
-    std::ofstream(dir_ / name) << text;
-    return dir_ / name;
-  }
-  fs::path dir_;
-};
+class Cli : public bandstack::testing::ScratchFolderTest {};
 
 TEST_F(Cli, Version) {
   const Outcome r = invoke("--version");

@@ -17,6 +17,8 @@
 #include <fstream>
 #include <functional>
 #include <gtest/gtest.h>
+
+#include "spectral/tiny_sw_recipe.hpp"
 #include <regex>
 #include <string>
 #include <unistd.h>
@@ -97,38 +99,7 @@ width_upper_cm1 = 1000.0
 std::string sw_build_recipe(const std::string& solar) {
   return R"(name = "tiny_sw"
 absorbers = "solar_idealised_absorbers.toml"
-wavenumber_step_cm1 = 1.0
-[reference_grid]
-pressure_min_hpa = 1.0
-pressure_max_hpa = 1100.0
-pressure_count = 5
-temperature_min_k = 150.0
-temperature_max_k = 350.0
-temperature_step_k = 200.0
-planck_temperature_min_k = 200.0
-planck_temperature_max_k = 300.0
-planck_temperature_step_k = 100.0
-[ordering_state]
-pressure_hpa = 500.0
-temperature_k = 260.0
-h2o_ppmv = 2000.0
-co2_ppmv = 400.0
-o3_ppmv = 1.0
-ch4_ppmv = 1.8
-n2o_ppmv = 0.32
-[[bands]]
-lower_cm1 = 2000.0
-upper_cm1 = 9000.0
-gpoints = 4
-[[bands]]
-lower_cm1 = 9000.0
-upper_cm1 = 25000.0
-gpoints = 3
-[[bands]]
-lower_cm1 = 25000.0
-upper_cm1 = 50000.0
-gpoints = 3
-)" + solar;
+)" + bandstack::testing::tiny_sw_recipe_body(5) + solar;
 }
 
 sp::BandSet build_tiny(const std::string& solar) {
