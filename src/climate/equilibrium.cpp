@@ -169,7 +169,7 @@ private:
   Eigen::VectorXd full_response(const detail::Evaluation& e) const {
     Eigen::VectorXd f(static_cast<Eigen::Index>(n_ + 1));
     for (std::size_t i = 0; i < n_; ++i) f[static_cast<Eigen::Index>(i)] = e.heating_k_day[i];
-    f[static_cast<Eigen::Index>(n_)] = e.surface_net_w_m2;
+    f[static_cast<Eigen::Index>(n_)] = e.surface_net_w_m2();
     return f;
   }
 

@@ -43,11 +43,12 @@ void check_inputs(const atmosphere::Column& start, const EquilibriumSettings& s)
 
 void Evaluator::operator()(const atmosphere::Column& column, Evaluation& out) {
   ++calls_;
-  radiation_(column, out.heating_k_day, out.toa_net_w_m2, out.surface_net_w_m2);
-  if (out.heating_k_day.size() != column.layer_count())
-    throw InternalError("radiation callback returned a heating rate of the wrong size");
-  bool finite = std::isfinite(out.toa_net_w_m2) && std::isfinite(out.surface_net_w_m2);
+  radiation_(column, out);
+  if (out.heating_k_day.size() != column.layer_count() || out.net_flux_w_m2.size() != column.level_count())
+    throw InternalError("radiation callback returned heating rates or fluxes of the wrong size");
+  bool finite = std::isfinite(out.olr_w_m2) && std::isfinite(out.absorbed_solar_w_m2);
   for (double h : out.heating_k_day) finite = finite && std::isfinite(h);
+  for (double f : out.net_flux_w_m2) finite = finite && std::isfinite(f);
   if (!finite) throw InputError(InputPlace::of("radiation"), "radiative heating is not finite for this state");
 }
 
@@ -66,7 +67,7 @@ void set_state(atmosphere::Column& column, const std::vector<double>& t, double 
 
 double region_net_w_m2(const atmosphere::Column& column, const Evaluation& e, const std::vector<bool>& convective) {
   const double cp = constants::specific_heat_dry_air_j_kg_k;
-  double net = e.surface_net_w_m2;
+  double net = e.surface_net_w_m2();
   for (std::size_t i = column.layer_count(); i-- > 0 && convective[i];)
     net += cp * (column.pressure_level_pa[i + 1] - column.pressure_level_pa[i]) / column.gravity_m_s2 *
            e.heating_k_day[i] / constants::seconds_per_day;
@@ -78,8 +79,8 @@ bool finish(EquilibriumResult& r, const atmosphere::Column& column, const Evalua
   r.column = column;
   r.heating_k_day = e.heating_k_day;
   r.convective = convective;
-  r.toa_net_w_m2 = e.toa_net_w_m2;
-  r.surface_net_w_m2 = e.surface_net_w_m2;
+  r.toa_net_w_m2 = e.toa_net_w_m2();
+  r.surface_net_w_m2 = e.surface_net_w_m2();
   r.region_net_w_m2 = region_net_w_m2(column, e, convective);
   r.max_radiative_heating_k_day = 0.0;
   for (std::size_t i = 0; i < column.layer_count(); ++i)

@@ -12,11 +12,7 @@ namespace bandstack::climate::detail {
 void check_inputs(const atmosphere::Column& start, const EquilibriumSettings& settings);
 
 // One radiative evaluation of a column, counted.
-struct Evaluation {
-  std::vector<double> heating_k_day;
-  double toa_net_w_m2 = 0.0;
-  double surface_net_w_m2 = 0.0;
-};
+using Evaluation = RadiationOutput;
 
 class Evaluator {
 public:

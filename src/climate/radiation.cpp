@@ -14,13 +14,13 @@ NetHeating grey_net_heating(const solvers::GreyOptics& optics, const solvers::An
   if (!std::isfinite(surface_absorbed_solar_w_m2) || surface_absorbed_solar_w_m2 < 0.0)
     throw InputError(InputPlace::of("surface_absorbed_solar"), "must be finite and >= 0 W m-2");
   solvers::validate(angles);
-  return [optics, angles, solar = surface_absorbed_solar_w_m2](const atmosphere::Column& column,
-                                                               std::vector<double>& heating, double& toa_net,
-                                                               double& surface_net) {
+  return [optics, angles, solar = surface_absorbed_solar_w_m2](const atmosphere::Column& column, RadiationOutput& out) {
     const solvers::LongwaveResult lw = solvers::solve_grey_longwave(column, optics, angles);
-    heating = lw.heating_rate_k_day;
-    toa_net = solar - lw.olr();
-    surface_net = solar + lw.flux_down.back() - lw.flux_up.back();
+    out.heating_k_day = lw.heating_rate_k_day;
+    out.net_flux_w_m2.resize(lw.flux_up.size());
+    for (std::size_t k = 0; k < lw.flux_up.size(); ++k) out.net_flux_w_m2[k] = solar + lw.flux_down[k] - lw.flux_up[k];
+    out.olr_w_m2 = lw.olr();
+    out.absorbed_solar_w_m2 = solar;
   };
 }
 
@@ -49,17 +49,19 @@ NetHeating band_net_heating(const spectral::BandSet& longwave_set, const spectra
   auto tables = std::make_shared<const BandTables>(BandTables{solvers::make_band_optics_tables(longwave_set),
                                                               solvers::make_shortwave_optics_tables(shortwave_set)});
   return [tables, angles, solar_constant_w_m2, scratch = BandScratch{}](const atmosphere::Column& column,
-                                                                        std::vector<double>& heating,
-                                                                        double& toa_net, double& surface_net) mutable {
+                                                                        RadiationOutput& out) mutable {
     solvers::solve_band_longwave(column, tables->longwave, angles, {}, scratch.lw_workspace, scratch.lw);
     solvers::solve_band_shortwave(column, tables->shortwave, {}, solar_constant_w_m2, scratch.sw_workspace,
                                   scratch.sw);
     const std::size_t n = column.layer_count();
-    heating.resize(n);
+    out.heating_k_day.resize(n);
     for (std::size_t i = 0; i < n; ++i)
-      heating[i] = scratch.lw.heating_rate_k_day[i] + scratch.sw.heating_rate_k_day[i];
-    toa_net = scratch.sw.absorbed_solar() - scratch.lw.olr();
-    surface_net = scratch.sw.surface_absorbed() + scratch.lw.flux_down.back() - scratch.lw.flux_up.back();
+      out.heating_k_day[i] = scratch.lw.heating_rate_k_day[i] + scratch.sw.heating_rate_k_day[i];
+    out.net_flux_w_m2.resize(n + 1);
+    for (std::size_t k = 0; k <= n; ++k)
+      out.net_flux_w_m2[k] = scratch.sw.flux_down[k] - scratch.sw.flux_up[k] + scratch.lw.flux_down[k] - scratch.lw.flux_up[k];
+    out.olr_w_m2 = scratch.lw.olr();
+    out.absorbed_solar_w_m2 = scratch.sw.absorbed_solar();
   };
 }
 

@@ -70,8 +70,8 @@ EquilibriumResult march_to_equilibrium(const atmosphere::Column& start, const Ne
         growing = !convective[i] && e.heating_k_day[i] * previous.heating_k_day[i] < 0.0 &&
                   std::abs(e.heating_k_day[i]) > std::max(std::abs(previous.heating_k_day[i]), s.heating_tolerance_k_day);
       if (seb && !convective.back())
-        growing = growing || (e.surface_net_w_m2 * previous.surface_net_w_m2 < 0.0 &&
-                              std::abs(e.surface_net_w_m2) > std::max(std::abs(previous.surface_net_w_m2), s.flux_tolerance_w_m2));
+        growing = growing || (e.surface_net_w_m2() * previous.surface_net_w_m2() < 0.0 &&
+                              std::abs(e.surface_net_w_m2()) > std::max(std::abs(previous.surface_net_w_m2()), s.flux_tolerance_w_m2));
     }
     if (growing) {
       dt *= 0.5;
@@ -91,7 +91,7 @@ EquilibriumResult march_to_equilibrium(const atmosphere::Column& start, const Ne
     previous = e;
     have_previous = true;
     for (std::size_t i = 0; i < n; ++i) t[i] += dt * e.heating_k_day[i] / 86400.0;
-    if (seb) ts += dt * e.surface_net_w_m2 / cs;
+    if (seb) ts += dt * e.surface_net_w_m2() / cs;
     adjust(t, ts);
   }
 }

@@ -11,17 +11,26 @@
 
 namespace bandstack::climate {
 
-// Radiative heating of a column, longwave plus shortwave:
-//   heating_k_day       N layers, K/day (resized by the callback), as solvers/heating.hpp defines it
-//   toa_net_w_m2        net downward flux at the top of the atmosphere, W m-2 (absorbed solar - OLR)
-//   surface_net_w_m2    net downward flux into the surface, W m-2 (shortwave + longwave)
-// The heating rates must come from net fluxes with c_p = constants::specific_heat_dry_air_j_kg_k
+// What one radiative evaluation of a column gives, longwave plus shortwave.
+struct RadiationOutput {
+  std::vector<double> heating_k_day;   // N layers, K/day, as solvers/heating.hpp defines it
+  std::vector<double> net_flux_w_m2;   // N+1 levels, net downward flux (down - up, LW + SW), W m-2
+  double olr_w_m2 = 0.0;               // outgoing longwave flux at the top, W m-2
+  double absorbed_solar_w_m2 = 0.0;    // shortwave absorbed by the column and the surface, W m-2
+
+  // Net downward flux at the top of the atmosphere (absorbed solar - OLR), W m-2.
+  [[nodiscard]] double toa_net_w_m2() const { return net_flux_w_m2.front(); }
+  // Net downward flux into the surface (shortwave + longwave), W m-2.
+  [[nodiscard]] double surface_net_w_m2() const { return net_flux_w_m2.back(); }
+};
+
+// Radiative heating of a column. The callback fills every member of `out` (resizing its vectors).
+// The heating rates must come from the net fluxes with c_p = constants::specific_heat_dry_air_j_kg_k
 // and the column's gravity (so that sum_i c_p dp_i/g H_i / 86400 + surface_net = toa_net), which
 // the equilibrium solver uses to form the energy balance of a convective region.
 // A callback may keep scratch space: use one copy per thread (a copy gets its own scratch).
 // Throws InputError for a column its method cannot handle (e.g. a temperature outside its tables).
-using NetHeating = std::function<void(const atmosphere::Column& column, std::vector<double>& heating_k_day,
-                                      double& toa_net_w_m2, double& surface_net_w_m2)>;
+using NetHeating = std::function<void(const atmosphere::Column& column, RadiationOutput& out)>;
 
 // Grey longwave only (solvers::solve_grey_longwave with `optics` and `angles`), with sunlight
 // absorbed only by the surface: surface_absorbed_solar_w_m2 (finite, >= 0) enters both the surface
