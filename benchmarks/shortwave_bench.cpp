@@ -56,7 +56,7 @@ Problem make_problem() {
 
 // The longwave kernel's inputs on the same cells.
 struct LongwaveProblem {
-  std::vector<double> tau, source, surface, emissivity, up, down;
+  std::vector<double> tau, source, source_layer, surface, emissivity, up, down;
 };
 
 LongwaveProblem make_longwave(const Problem& p) {
@@ -66,6 +66,10 @@ LongwaveProblem make_longwave(const Problem& p) {
   for (std::size_t k = 0; k <= layers; ++k)
     for (std::size_t q = 0; q < points; ++q)
       l.source[k * points + q] = 50.0 + 0.5 * static_cast<double>(k);
+  l.source_layer.resize(layers * points);
+  for (std::size_t i = 0; i < layers; ++i)
+    for (std::size_t q = 0; q < points; ++q)
+      l.source_layer[i * points + q] = 50.25 + 0.5 * static_cast<double>(i);
   l.surface.assign(points, 85.0);
   l.emissivity.assign(points, 0.98);
   l.up.resize((layers + 1) * points);
@@ -99,7 +103,8 @@ double longwave_seconds(std::int64_t arg, const Problem& p) {
   const bs::AngularQuadrature angles = angles_for(arg);
   bs::LongwaveManyWorkspace ws;
   return best_time([&] {
-    bs::longwave_fluxes_many(points, l.tau, l.source, l.surface, l.emissivity, angles, l.up, l.down, ws);
+    bs::longwave_fluxes_many(points, l.tau, l.source, l.source_layer, l.surface, l.emissivity, angles, l.up, l.down,
+                             ws);
     benchmark::DoNotOptimize(l.up.data());
     benchmark::ClobberMemory();
   });

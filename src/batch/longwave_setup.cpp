@@ -65,7 +65,8 @@ LongwaveSetup prepare_longwave(const io::Study& study) {
     break;
   }
   }
-  setup.description += "; " + angles_text + "; source linear in optical depth within layers";
+  setup.description +=
+      "; " + angles_text + "; Planck source at layer temperatures and exit levels, linear in optical depth in layers";
   return setup;
 }
 

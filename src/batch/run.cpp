@@ -8,6 +8,7 @@
 #include "bandstack/core/error.hpp"
 #include "bandstack/io/atomic_output.hpp"
 #include "bandstack/io/result_writer.hpp"
+#include "batch/climate_setup.hpp"
 #include "batch/longwave_setup.hpp"
 #include "batch/shortwave_setup.hpp"
 
@@ -63,18 +64,23 @@ void check_band_properties(const io::Study& study, const LongwaveSetup& lw, cons
 std::vector<ColumnResult> compute_with(const io::Study& study, const LongwaveSetup& setup, const ShortwaveSetup& sw_setup,
                                        const std::vector<atmosphere::Column>& columns, std::size_t threads) {
   check_band_properties(study, setup, sw_setup);
+  const ClimateSetup climate_setup = prepare_climate(study, setup, sw_setup);
   std::vector<ColumnResult> results(columns.size());
   auto work = [&] {
     tbb::parallel_for(std::size_t{0}, columns.size(), [&](std::size_t c) {
       results[c].column = columns[c];
       try {
+        compute_climate(climate_setup, c, columns[c], results[c]);
         const io::ColumnSpec& spec = study.columns[c];
-        results[c].longwave = solve_longwave(study, setup, columns[c], spec.surface_emissivity_by_band);
-        results[c].shortwave = solve_shortwave(sw_setup, columns[c], spec.surface_albedo_by_band);
+        results[c].longwave = solve_longwave(study, setup, results[c].column, spec.surface_emissivity_by_band);
+        results[c].shortwave = solve_shortwave(sw_setup, results[c].column, spec.surface_albedo_by_band);
       } catch (const InputError& e) {
         throw InputError(InputPlace{study.source_file, fmt::format("columns[{}] \"{}\"", c, columns[c].name), {}, {},
                                     static_cast<long>(c), {}},
                          e.what());
+      } catch (const ConvergenceError& e) {
+        throw ConvergenceError(fmt::format("{}: columns[{}] \"{}\": {}", study.source_file.empty() ? "demo" : study.source_file,
+                                           c, columns[c].name, e.what()));
       }
     });
   };
@@ -91,7 +97,10 @@ std::vector<ColumnResult> compute_with(const io::Study& study, const LongwaveSet
 
 std::vector<atmosphere::Column> check_study(const io::Study& study) {
   std::vector<atmosphere::Column> columns = build_columns(study);
-  check_band_properties(study, prepare_longwave(study), prepare_shortwave(study));
+  const LongwaveSetup lw = prepare_longwave(study);
+  const ShortwaveSetup sw = prepare_shortwave(study);
+  check_band_properties(study, lw, sw);
+  (void)prepare_climate(study, lw, sw);
   return columns;
 }
 
@@ -119,8 +128,10 @@ RunOutcome run_study(const io::Study& study, const RunOptions& options) {
   info.command_line = study.source_file.empty() ? "bandstack demo" : "bandstack run " + study.source_file;
   info.longwave_method = setup.description;
   info.shortwave_method = sw_setup.description;
+  info.equilibrium_method = describe_equilibrium(study);
+  for (const climate::Perturbation& p : study.experiments) info.experiment_names.push_back(p.name);
   io::write_result_file(path, results, info);
-  return RunOutcome{path, results};
+  return RunOutcome{path, results, info.experiment_names};
 }
 
 std::string format_summary(const RunOutcome& outcome) {
@@ -132,6 +143,17 @@ std::string format_summary(const RunOutcome& outcome) {
                         r.longwave.olr(), r.longwave.surface_down(),
                         sw ? fmt::format("{:.2f}", r.shortwave.absorbed_solar()) : "-",
                         sw ? fmt::format("{:.2f}", r.shortwave.absorbed_solar() - r.longwave.olr()) : "-");
+  }
+  if (!outcome.experiment_names.empty()) {
+    text += fmt::format("\n{:<28} {:<28} {:>9} {:>9} {:>9}   (forcing in W m-2; dT_surf in K)\n", "column", "experiment",
+                        "F_TOA", "F_adj", "dT_surf");
+    for (const ColumnResult& r : outcome.results)
+      for (std::size_t e = 0; e < r.experiments.size() && e < outcome.experiment_names.size(); ++e) {
+        const climate::ExperimentResult& x = r.experiments[e];
+        text += fmt::format("{:<28} {:<28} {:>9.3f} {:>9.3f} {:>9}\n", r.column.name, outcome.experiment_names[e],
+                            x.forcing.toa_instantaneous_w_m2, x.forcing.adjusted_w_m2,
+                            x.equilibrium ? fmt::format("{:.3f}", x.surface_temperature_change_k) : "-");
+      }
   }
   return text + fmt::format("wrote {}\n", outcome.output_file.string());
 }

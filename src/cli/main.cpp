@@ -12,6 +12,7 @@
 #include "bandstack/core/version.hpp"
 #include "bandstack/io/band_catalog.hpp"
 #include "bandstack/io/band_set_file.hpp"
+#include "bandstack/io/demo_study.hpp"
 #include "bandstack/io/study.hpp"
 #include "bandstack/spectral/band_set_summary.hpp"
 
@@ -49,7 +50,7 @@ int dispatch(int argc, char** argv) {
   Options o;
   app.add_flag("-q,--quiet", o.quiet, "Print nothing but errors");
 
-  CLI::App* demo = app.add_subcommand("demo", "Run the built-in demo study (examples/tarrow_sound_demo.toml)");
+  CLI::App* demo = app.add_subcommand("demo", "Run the built-in demo studies (examples/tarrow_sound_demo.toml, examples/equilibrium_demo.toml)");
   add_run_options(demo, o);
   CLI::App* run_cmd = app.add_subcommand("run", "Run a study file");
   run_cmd->add_option("study", o.study_path, "Study file (TOML)")->required();
@@ -73,11 +74,14 @@ int dispatch(int argc, char** argv) {
   }
 
   if (*demo) {
-    bandstack::io::Study study = bandstack::io::parse_study(bandstack::io::demo_study_text(), "built-in demo study");
-    study.source_file.clear();
     if (o.out_dir.empty()) o.out_dir = "bandstack-demo";
     std::filesystem::create_directories(o.out_dir);
-    return run(study, o);
+    for (const std::string_view text : {bandstack::io::demo_study_text(), bandstack::io::equilibrium_demo_study_text()}) {
+      bandstack::io::Study study = bandstack::io::parse_study(text, "built-in demo study");
+      study.source_file.clear();
+      run(study, o);
+    }
+    return 0;
   }
   if (*bands_build) {
     bandstack::io::write_band_set(o.band_set_path, bandstack::io::build_band_set_from_recipe(o.recipe));

@@ -59,13 +59,22 @@ void set_level_temperatures(atmosphere::Column& column, bool surface_air_is_skin
 }
 
 void update_water(atmosphere::Column& column, const WaterSettings& water) {
+  if (!std::isfinite(water.h2o_scale) || water.h2o_scale < 0.0)
+    throw InputError(InputPlace::of("h2o_scale"), "must be finite and >= 0");
   if (water.treatment != WaterTreatment::fixed_relative_humidity) return;
   const std::size_t n = column.layer_count();
+  if (n == 0 || column.temperature_layer_k.size() != n || column.pressure_level_pa.size() != n + 1)
+    throw InputError(InputPlace::of("temperature_layer"), "column needs N >= 1 layers with N layer temperatures and N+1 levels");
   const auto& t = column.temperature_layer_k;
   const std::size_t cold_point = static_cast<std::size_t>(std::min_element(t.begin(), t.end()) - t.begin());
-  column.gas(Gas::h2o) = atmosphere::water_vapour_mole_fraction(
-      column.pressure_layer_pa, t, column.pressure_level_pa[n], water.surface_relative_humidity,
-      column.pressure_layer_pa[cold_point], water.stratospheric_mole_fraction);
+  auto& h2o = column.gas(Gas::h2o);
+  h2o = atmosphere::water_vapour_mole_fraction(column.pressure_layer_pa, t, column.pressure_level_pa[n],
+                                               water.surface_relative_humidity, column.pressure_layer_pa[cold_point],
+                                               water.stratospheric_mole_fraction);
+  // The troposphere is the cold point and the layers below it (water_vapour_mole_fraction takes
+  // layer pressures >= the tropopause pressure as tropospheric); the stratospheric value stays.
+  if (water.h2o_scale != 1.0)
+    for (std::size_t i = cold_point; i < n; ++i) h2o[i] *= water.h2o_scale;
 }
 
 } // namespace bandstack::climate

@@ -10,6 +10,7 @@
 #include "bandstack/core/constants.hpp"
 #include "bandstack/core/error.hpp"
 #include "equilibrium_state.hpp"
+#include "grouped_jacobian.hpp"
 
 namespace bandstack::climate {
 
@@ -24,9 +25,12 @@ namespace {
 // Newton's method on the heating-rate residual with a moving convective region (equilibrium.hpp).
 class Newton {
 public:
-  Newton(const atmosphere::Column& start, const NetHeating& radiation, const EquilibriumSettings& s)
-      : s_(s), column_(start), evaluate_(radiation), n_(start.layer_count()), t_(start.temperature_layer_k),
-        ts_(start.surface_temperature_k), first_convective_(n_) {
+  // grouped: difference the Jacobian in groups of layers (grouped_jacobian.hpp) and revise the
+  // convective region within each step from the step's prediction; otherwise full differences and
+  // the region revised only between steps.
+  Newton(const atmosphere::Column& start, const NetHeating& radiation, const EquilibriumSettings& s, bool grouped)
+      : s_(s), grouped_(grouped), column_(start), evaluate_(radiation), n_(start.layer_count()),
+        t_(start.temperature_layer_k), ts_(start.surface_temperature_k), first_convective_(n_) {
     seb_ = s.surface == SurfaceTreatment::energy_balance;
     convection_ = s.convection.kind != ConvectionKind::none;
     surface_p_ = start.pressure_level_pa[n_];
@@ -82,7 +86,11 @@ private:
     return y;
   }
 
-  double profile(double p) const { return critical_profile_temperature_k(s_.convection, ts_, surface_p_, p, column_.gravity_m_s2); }
+  // Temperature (K) of the critical profile through the surface at layer pressure p (Pa).
+  double profile(double p, double ts) const {
+    return critical_profile_temperature_k(s_.convection, ts, surface_p_, p, column_.gravity_m_s2);
+  }
+  double profile(double p) const { return profile(p, ts_); }
 
   // Convective layers onto the critical profile through the surface.
   void apply_region() {
@@ -115,10 +123,22 @@ private:
     }
   }
 
-  Eigen::VectorXd residual(const detail::Evaluation& e) const {
+  Eigen::VectorXd residual(const detail::Evaluation& e) const { return residual_of(full_response(e)); }
+
+  // Residual for the current region from a full response f = (H_0 .. H_{N-1}, surface net): the
+  // heating of the radiative layers, then F_region (equilibrium.hpp) with the surface energy balance.
+  Eigen::VectorXd residual_of(const Eigen::VectorXd& f) const {
     Eigen::VectorXd r(static_cast<Eigen::Index>(unknown_count()));
-    for (std::size_t i = 0; i < first_convective_; ++i) r[static_cast<Eigen::Index>(i)] = e.heating_k_day[i];
-    if (seb_) r[static_cast<Eigen::Index>(first_convective_)] = detail::region_net_w_m2(column_, e, flags());
+    const auto at = [&f](std::size_t i) { return f[static_cast<Eigen::Index>(i)]; };
+    for (std::size_t i = 0; i < first_convective_; ++i) r[static_cast<Eigen::Index>(i)] = at(i);
+    if (seb_) {
+      double net = at(n_);
+      for (std::size_t i = first_convective_; i < n_; ++i)
+        net += constants::specific_heat_dry_air_j_kg_k *
+               (column_.pressure_level_pa[i + 1] - column_.pressure_level_pa[i]) / column_.gravity_m_s2 * at(i) /
+               constants::seconds_per_day;
+      r[static_cast<Eigen::Index>(first_convective_)] = net;
+    }
     return r;
   }
 
@@ -199,30 +219,36 @@ private:
     return a * jacobian_ * b;
   }
 
-  // Forward differences of the full map at the current state: N + 1 radiative calls.
-  bool refresh_jacobian(std::string& failure) {
+  // The Jacobian of the full map at the current state by forward differences: exact (N + 1
+  // radiative calls) or grouped (grouped_jacobian.hpp; 2b + 3 calls).
+  bool refresh_jacobian(std::string& failure, bool exact) {
     const Eigen::VectorXd f0 = full_response(eval_);
     const std::vector<double> t0 = t_;
     const double ts0 = ts_;
-    jacobian_ = Eigen::MatrixXd::Zero(static_cast<Eigen::Index>(n_ + 1), static_cast<Eigen::Index>(n_ + 1));
     atmosphere::Column trial_column = column_;
     detail::Evaluation trial;
-    for (std::size_t j = 0; j <= n_; ++j) {
-      if (j < n_)
-        t_[j] += s_.jacobian_step_k;
+    const std::size_t group_count = exact ? n_ : detail::jacobian_group_count(n_, s_.jacobian_half_bandwidth);
+    std::vector<Eigen::VectorXd> responses(group_count + 1);
+    for (std::size_t g = 0; g <= group_count; ++g) {
+      if (g < group_count)
+        for (std::size_t j : detail::jacobian_group(g, group_count, n_)) t_[j] += s_.jacobian_step_k;
       else
         ts_ += s_.jacobian_step_k;
       const bool ok = evaluate_state(trial_column, trial);
       t_ = t0;
       ts_ = ts0;
       if (!ok) {
-        failure = fmt::format("the finite-difference Jacobian left the radiation's range (unknown {}: {})", j, last_error_);
+        failure = fmt::format("the finite-difference Jacobian left the radiation's range ({})", last_error_);
         return false;
       }
-      jacobian_.col(static_cast<Eigen::Index>(j)) = (full_response(trial) - f0) / s_.jacobian_step_k;
+      responses[g] = (full_response(trial) - f0) / s_.jacobian_step_k;
     }
+    const Eigen::VectorXd surface = responses.back();
+    responses.pop_back();
+    jacobian_ = detail::assemble_grouped_jacobian(responses, surface, s_.jacobian_half_bandwidth);
     have_jacobian_ = true;
     fresh_jacobian_ = true;
+    exact_jacobian_ = exact || group_count == n_;
     return true;
   }
 
@@ -242,36 +268,74 @@ private:
     fresh_jacobian_ = false;
   }
 
+  // The Newton step for the current region from the state (t0, ts0) whose full map is (x0, f0),
+  // capped at max_step_k: the region applied to that state (its layers onto the critical profile),
+  // the residual there predicted with the Jacobian, and the step that zeroes it. Returns the
+  // unknowns of the region-applied state in y_ref.
+  Eigen::VectorXd solve_step(const std::vector<double>& t0, double ts0, const Eigen::VectorXd& x0,
+                             const Eigen::VectorXd& f0, std::vector<double>& y_ref) {
+    t_ = t0;
+    ts_ = ts0;
+    apply_region();
+    y_ref = unknowns();
+    const Eigen::VectorXd r_ref = residual_of(f0 + jacobian_ * (full_state() - x0));
+    Eigen::VectorXd dy = newton_matrix().partialPivLu().solve(-r_ref);
+    if (!dy.allFinite()) return dy;
+    const double largest = dy.cwiseAbs().maxCoeff();
+    if (largest > s_.max_step_k) dy *= s_.max_step_k / largest;
+    return dy;
+  }
+
+  // The region the step predicts: grown upward over the radiative layers that the (capped) step
+  // would leave colder than the critical profile through the predicted surface temperature.
+  std::size_t predicted_region(const std::vector<double>& y_ref, const Eigen::VectorXd& dy) const {
+    const double ts = seb_ ? y_ref.back() + dy[dy.size() - 1] : ts_;
+    std::size_t top = first_convective_;
+    while (top > 0 &&
+           y_ref[top - 1] + dy[static_cast<Eigen::Index>(top - 1)] < profile(column_.pressure_layer_pa[top - 1], ts))
+      --top;
+    return top;
+  }
+
   // One Newton step with a backtracking line search on the merit. With an updated (not freshly
   // differenced) Jacobian a step that fails the sufficient-decrease test after two halvings counts
   // as a stalled update: the Jacobian is recomputed by differences and the step redone.
   bool step(double& merit0, std::string& failure) {
-    if (!have_jacobian_) {
-      if (!refresh_jacobian(failure)) return false;
-      have_jacobian_ = true;
-    }
-    const std::vector<double> y0 = unknowns();
-    const Eigen::VectorXd r0 = residual(eval_);
+    if (!have_jacobian_ && !refresh_jacobian(failure, !grouped_)) return false;
+    const std::vector<double> t0 = t_;
+    const double ts0 = ts_;
+    const std::size_t region0 = first_convective_;
     const Eigen::VectorXd x0 = full_state(), f0 = full_response(eval_);
-    const std::size_t m = y0.size();
     atmosphere::Column trial_column = column_;
     detail::Evaluation trial;
     for (;;) {
-      const bool fresh = fresh_jacobian_;
-      Eigen::VectorXd dy = newton_matrix().partialPivLu().solve(-r0);
+      // Only an exact, fresh Jacobian is trusted to give a direction worth taking without decrease.
+      const bool trusted = fresh_jacobian_ && exact_jacobian_;
+      // The next Jacobian if this one fails: grouped differences first when this one was updated,
+      // exact differences when this one was grouped and fresh.
+      const bool next_exact = !grouped_ || fresh_jacobian_;
+      first_convective_ = region0;
+      std::vector<double> y0;
+      Eigen::VectorXd dy = solve_step(t0, ts0, x0, f0, y0);
+      // Active set (the convective region) revised from the linear prediction, no radiative call.
+      for (std::size_t revision = 0; grouped_ && convection_ && dy.allFinite() && revision < n_; ++revision) {
+        const std::size_t top = predicted_region(y0, dy);
+        if (top == first_convective_) break;
+        first_convective_ = top;
+        dy = solve_step(t0, ts0, x0, f0, y0);
+      }
+      const std::size_t m = y0.size();
       if (!dy.allFinite()) {
-        if (!fresh) {
-          if (!refresh_jacobian(failure)) return false;
+        if (!trusted) {
+          if (!refresh_jacobian(failure, next_exact)) return false;
           continue;
         }
         failure = "the Jacobian is singular";
-        return false;
+        break;
       }
-      const double largest = dy.cwiseAbs().maxCoeff();
-      if (largest > s_.max_step_k) dy *= s_.max_step_k / largest;
-      // With a fresh Jacobian, a step that does not decrease the merit after 8 halvings is still
-      // taken (far from equilibrium the merit can rise before it falls), at most 4 times in a row.
-      const int halvings = fresh ? 8 : 2;
+      // With a fresh exact Jacobian, a step that does not decrease the merit after 8 halvings is
+      // still taken (far from equilibrium the merit can rise before it falls), at most 4 times in a row.
+      const int halvings = trusted ? 8 : 2;
       double lambda = 1.0;
       for (int halving = 0; halving <= halvings; ++halving, lambda *= 0.5) {
         std::vector<double> y = y0;
@@ -280,9 +344,10 @@ private:
         if (!evaluate_state(trial_column, trial)) continue;
         const double mt = merit(residual(trial));
         const bool decrease = mt < (1.0 - 1e-4 * lambda) * merit0;
-        if (decrease || (fresh && halving == 8)) {
+        if (decrease || (trusted && halving == 8)) {
           if (!(mt < merit0) && ++uphill_ > 4) {
             failure = "the line search found no decrease of the residual";
+            restore(t0, ts0, region0);
             return false;
           }
           if (mt < merit0) uphill_ = 0;
@@ -293,15 +358,25 @@ private:
           return true;
         }
       }
-      set_unknowns(y0);
-      if (fresh) break;
-      if (!refresh_jacobian(failure)) return false;
+      restore(t0, ts0, region0);
+      if (trusted) {
+        failure = "every trial step left the radiation's range (" + last_error_ + ")";
+        break;
+      }
+      if (!refresh_jacobian(failure, next_exact)) return false;
     }
-    failure = "every trial step left the radiation's range (" + last_error_ + ")";
+    restore(t0, ts0, region0);
     return false;
   }
 
+  void restore(const std::vector<double>& t0, double ts0, std::size_t region) {
+    t_ = t0;
+    ts_ = ts0;
+    first_convective_ = region;
+  }
+
   const EquilibriumSettings& s_;
+  bool grouped_;                 // start (and restart) with grouped differences
   atmosphere::Column column_;
   detail::Evaluator evaluate_;
   std::size_t n_;
@@ -319,6 +394,7 @@ private:
   Eigen::MatrixXd jacobian_;     // d(H_0 .. H_{N-1}, surface net)/d(T_0 .. T_{N-1}, T_s)
   bool have_jacobian_ = false;
   bool fresh_jacobian_ = false;  // differenced at the current state, not updated since
+  bool exact_jacobian_ = false;  // differenced column by column (not grouped)
 };
 
 } // namespace
@@ -327,11 +403,28 @@ EquilibriumResult solve_equilibrium(const atmosphere::Column& start, const NetHe
                                     const EquilibriumSettings& settings) {
   detail::check_inputs(start, settings);
   if (!radiation) throw InputError(InputPlace::of("radiation"), "no radiation callback given");
-  Newton newton(start, radiation, settings);
+  const std::size_t n = start.layer_count();
+  const bool grouped = settings.jacobian == JacobianMethod::grouped_differences &&
+                       detail::jacobian_group_count(n, settings.jacobian_half_bandwidth) < n;
   EquilibriumResult result;
   std::string failure;
-  const bool ok = newton.run(result, failure);
+  Newton newton(start, radiation, settings, grouped);
+  bool ok = newton.run(result, failure);
   result.radiative_calls = newton.calls();
+  atmosphere::Column best = newton.best_column();
+  if (!ok && grouped) {
+    // Grouped differences did not get there: Newton's method again from the start with full
+    // differences, as robust as it ever was.
+    const int steps = result.newton_iterations;
+    const long calls = result.radiative_calls;
+    Newton full(start, radiation, settings, false);
+    std::string full_failure;
+    ok = full.run(result, full_failure);
+    result.newton_iterations += steps;
+    result.radiative_calls = calls + full.calls();
+    failure = fmt::format("with grouped differences: {}; with full differences: {}", failure, full_failure);
+    best = full.best_column();
+  }
   if (ok) {
     result.method = EquilibriumMethod::newton;
     result.converged = true;
@@ -340,11 +433,11 @@ EquilibriumResult solve_equilibrium(const atmosphere::Column& start, const NetHe
   if (!settings.time_marching_fallback)
     throw ConvergenceError(fmt::format("column '{}': equilibrium not reached: {} (time marching not allowed)",
                                        start.name, failure));
-  const atmosphere::Column& from = newton.best_column().layer_count() == start.layer_count() ? newton.best_column() : start;
+  const atmosphere::Column& from = best.layer_count() == start.layer_count() ? best : start;
   try {
     EquilibriumResult marched = march_to_equilibrium(from, radiation, settings);
     marched.newton_iterations = result.newton_iterations;
-    marched.radiative_calls += newton.calls();
+    marched.radiative_calls += result.radiative_calls;
     marched.newton_failure = failure;
     return marched;
   } catch (const ConvergenceError& e) {

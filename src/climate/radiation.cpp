@@ -2,6 +2,7 @@
 
 #include <cmath>
 #include <memory>
+#include <utility>
 
 #include "bandstack/core/error.hpp"
 #include "bandstack/solvers/band_longwave.hpp"
@@ -62,6 +63,19 @@ NetHeating band_net_heating(const spectral::BandSet& longwave_set, const spectra
       out.net_flux_w_m2[k] = scratch.sw.flux_down[k] - scratch.sw.flux_up[k] + scratch.lw.flux_down[k] - scratch.lw.flux_up[k];
     out.olr_w_m2 = scratch.lw.olr();
     out.absorbed_solar_w_m2 = scratch.sw.absorbed_solar();
+  };
+}
+
+RadiationWithBands band_net_heating_with_bands(const spectral::BandSet& longwave_set,
+                                               const spectral::BandSet& shortwave_set,
+                                               const solvers::AngularQuadrature& angles, double solar_constant_w_m2) {
+  if (!std::isfinite(solar_constant_w_m2) || solar_constant_w_m2 < 0.0)
+    throw InputError(InputPlace::of("solar_constant"), "must be finite and >= 0 W m-2");
+  solvers::validate(angles);
+  auto sets = std::make_shared<const std::pair<spectral::BandSet, spectral::BandSet>>(longwave_set, shortwave_set);
+  return [sets, angles, solar_constant_w_m2](const std::vector<bool>& active_longwave_bands) {
+    return band_net_heating(spectral::with_active_bands(sets->first, active_longwave_bands), sets->second, angles,
+                            solar_constant_w_m2);
   };
 }
 

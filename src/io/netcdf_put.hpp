@@ -38,3 +38,22 @@ void write_shortwave(netCDF::NcFile& file, std::span<const batch::ColumnResult> 
                      const netCDF::NcDim& level, const netCDF::NcDim& layer);
 
 } // namespace bandstack::io::detail
+
+namespace bandstack::io::detail {
+
+// Names of a list of items as a char variable `<var_name>(<dim>, <length_dim>)`; creates both
+// dimensions (the length one named <dim>_name_length) and returns the item dimension.
+netCDF::NcDim write_names(netCDF::NcFile& file, const std::string& dim, const std::string& var_name,
+                          const std::vector<std::string>& names, const char* long_name);
+
+// The climate variables (docs/output-file.md), each written only when the run produced it:
+// equilibrium diagnostics, experiment results on an `experiment` dimension, greenhouse attribution
+// on a `gas` dimension and the `band_lw` dimension (written before by write_longwave).
+void write_equilibrium(netCDF::NcFile& file, std::span<const batch::ColumnResult> results, const netCDF::NcDim& column,
+                       const netCDF::NcDim& layer);
+void write_experiments(netCDF::NcFile& file, std::span<const batch::ColumnResult> results,
+                       const std::vector<std::string>& experiment_names, const netCDF::NcDim& column,
+                       const netCDF::NcDim& layer);
+void write_attribution(netCDF::NcFile& file, std::span<const batch::ColumnResult> results, const netCDF::NcDim& column);
+
+} // namespace bandstack::io::detail

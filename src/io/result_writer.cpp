@@ -97,6 +97,9 @@ void write_contents(NcFile& file, std::span<const batch::ColumnResult> results, 
 
   write_longwave(file, results, column, level, layer);
   write_shortwave(file, results, column, level, layer);
+  detail::write_equilibrium(file, results, column, layer);
+  detail::write_experiments(file, results, info.experiment_names, column, layer);
+  detail::write_attribution(file, results, column);
 
   const std::vector<NcDim> scalar{column};
   put_per_column(add_variable(file, "surface_temperature", scalar, {"K", "surface skin temperature", "surface_temperature"}),
@@ -114,6 +117,7 @@ void write_contents(NcFile& file, std::span<const batch::ColumnResult> results, 
   file.putAtt("study_text", info.study_text);
   file.putAtt("longwave_method", info.longwave_method);
   if (!info.shortwave_method.empty()) file.putAtt("shortwave_method", info.shortwave_method);
+  if (!info.equilibrium_method.empty()) file.putAtt("equilibrium_method", info.equilibrium_method);
   file.putAtt("vertical_index_convention", "level and layer index 0 is the top of the atmosphere; the last level is the surface");
   file.putAtt("comment", std::string(caution_text()));
 }

@@ -8,6 +8,7 @@
 
 #include "bandstack/core/error.hpp"
 #include "bandstack/core/units.hpp"
+#include "io/study_climate.hpp"
 #include "io/toml_reader.hpp"
 
 namespace bandstack::io {
@@ -133,7 +134,8 @@ Study parse_study(std::string_view text, const std::string& file_name) {
     throw InputError(fmt::format("{}:{}:{}: TOML syntax error: {}", file_name, where.line, where.column, e.description()));
   }
   TomlReader r(file_name);
-  r.reject_unknown_keys(root, "", {"title", "grid", "longwave", "shortwave", "output", "columns"});
+  r.reject_unknown_keys(root, "", {"title", "grid", "longwave", "shortwave", "output", "columns", "equilibrium", "experiments",
+                              "attribution"});
 
   Study study;
   study.source_file = file_name;
@@ -142,6 +144,9 @@ Study parse_study(std::string_view text, const std::string& file_name) {
   read_grid(r, root, study.grid);
   read_longwave(r, root, study.longwave);
   read_shortwave(r, root, study.shortwave);
+  detail::read_equilibrium(r, root, study);
+  detail::read_experiments(r, root, study);
+  detail::read_attribution(r, root, study);
 
   std::string output_name = "bandstack_result.nc";
   if (const toml::table* t = r.table(root, "", "output")) {
@@ -164,6 +169,15 @@ Study parse_study(std::string_view text, const std::string& file_name) {
     if (!seen.insert(spec.name).second)
       r.problem(tables[i]->source(), fmt::format("columns[{}].name", i), "duplicate column name \"" + spec.name + "\"");
     study.columns.push_back(std::move(spec));
+  }
+  if (study.attribution.bands && study.longwave.method != LongwaveMethod::bands)
+    r.problem("attribution.bands needs the longwave method \"bands\"");
+  for (std::size_t i = 0; i < study.experiments.size(); ++i) {
+    const climate::Perturbation& p = study.experiments[i];
+    if (!p.removed_longwave_bands.empty() && study.longwave.method != LongwaveMethod::bands)
+      r.problem(fmt::format("experiments[{}].remove_longwave_bands needs the longwave method \"bands\"", i));
+    if (!p.removed_shortwave_bands.empty() && study.shortwave.method != ShortwaveMethod::bands)
+      r.problem(fmt::format("experiments[{}].remove_shortwave_bands needs the shortwave method \"bands\"", i));
   }
   r.throw_if_problems();
   return study;

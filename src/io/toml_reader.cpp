@@ -83,6 +83,61 @@ std::vector<double> TomlReader::number_array(const toml::table& table, const std
   return values;
 }
 
+std::vector<std::string> TomlReader::string_array(const toml::table& table, const std::string& prefix,
+                                                 const std::string& key) {
+  std::vector<std::string> values;
+  const toml::node* node = table.get(key);
+  if (!node) return values;
+  const std::string name = full_key(prefix, key);
+  if (!node->is_array()) {
+    problem(node->source(), name, "expected an array of strings, e.g. [\"o3\", \"ch4\"]");
+    return values;
+  }
+  std::size_t i = 0;
+  for (const toml::node& element : *node->as_array()) {
+    if (element.is_string()) values.push_back(element.as_string()->get());
+    else problem(element.source(), fmt::format("{}[{}]", name, i), "expected a string in quotes");
+    ++i;
+  }
+  return values;
+}
+
+std::vector<long long> TomlReader::integer_array(const toml::table& table, const std::string& prefix,
+                                                 const std::string& key, long long lo, long long hi) {
+  std::vector<long long> values;
+  const toml::node* node = table.get(key);
+  if (!node) return values;
+  const std::string name = full_key(prefix, key);
+  if (!node->is_array()) {
+    problem(node->source(), name, "expected an array of whole numbers, e.g. [2, 3]");
+    return values;
+  }
+  std::size_t i = 0;
+  for (const toml::node& element : *node->as_array()) {
+    const std::string item = fmt::format("{}[{}]", name, i++);
+    if (!element.is_integer()) {
+      problem(element.source(), item, "expected a whole number");
+      continue;
+    }
+    const long long value = element.as_integer()->get();
+    if (value < lo || value > hi)
+      problem(element.source(), item, fmt::format("value {} is outside the allowed range [{}, {}]", value, lo, hi));
+    else
+      values.push_back(value);
+  }
+  return values;
+}
+
+std::optional<bool> TomlReader::boolean(const toml::table& table, const std::string& prefix, const std::string& key) {
+  const toml::node* node = table.get(key);
+  if (!node) return std::nullopt;
+  if (!node->is_boolean()) {
+    problem(node->source(), full_key(prefix, key), "expected true or false");
+    return std::nullopt;
+  }
+  return node->as_boolean()->get();
+}
+
 const toml::table* TomlReader::table(const toml::table& parent, const std::string& prefix, const std::string& key) {
   const toml::node* node = parent.get(key);
   if (!node) return nullptr;

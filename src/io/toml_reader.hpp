@@ -24,6 +24,13 @@ public:
   // An array of numbers, each in [lo, hi]; absent gives an empty vector.
   std::vector<double> number_array(const toml::table& table, const std::string& prefix, const std::string& key, double lo,
                                    double hi);
+  // An array of strings; absent gives an empty vector.
+  std::vector<std::string> string_array(const toml::table& table, const std::string& prefix, const std::string& key);
+  // An array of integers, each in [lo, hi]; absent gives an empty vector.
+  std::vector<long long> integer_array(const toml::table& table, const std::string& prefix, const std::string& key,
+                                       long long lo, long long hi);
+  // A boolean; absent: nullopt; wrong type: a problem.
+  std::optional<bool> boolean(const toml::table& table, const std::string& prefix, const std::string& key);
   // A sub-table; absent gives nullptr; another type is a problem.
   const toml::table* table(const toml::table& table, const std::string& prefix, const std::string& key);
   // An array of tables ([[key]]); absent gives an empty vector.

@@ -47,8 +47,8 @@ void solve_band_longwave(const atmosphere::Column& column, const BandOpticsTable
 
   ws.flux_up.resize(levels * n_g);
   ws.flux_down.resize(levels * n_g);
-  longwave_fluxes_many(n_g, ws.optics.optical_depth, ws.optics.source_level, ws.optics.source_surface, ws.emissivity,
-                       angles, ws.flux_up, ws.flux_down, ws.kernel_workspace);
+  longwave_fluxes_many(n_g, ws.optics.optical_depth, ws.optics.source_level, ws.optics.source_layer,
+                       ws.optics.source_surface, ws.emissivity, angles, ws.flux_up, ws.flux_down, ws.kernel_workspace);
 
   result.band_lower_cm1.assign(tables.band_lower_cm1.begin(), tables.band_lower_cm1.end());
   result.band_upper_cm1.assign(tables.band_upper_cm1.begin(), tables.band_upper_cm1.end());

@@ -293,6 +293,7 @@ void compute_band_optics(const atmosphere::Column& column, const BandOpticsTable
   out.gpoint_count = n_g;
   out.optical_depth.resize(n * n_g);
   out.source_level.resize((n + 1) * n_g);
+  out.source_layer.resize(n * n_g);
   out.source_surface.resize(n_g);
 
   const std::size_t dp = n_p > 1 ? n_g : 0;       // row step to the upper pressure node
@@ -324,6 +325,10 @@ void compute_band_optics(const atmosphere::Column& column, const BandOpticsTable
   for (std::size_t k = 0; k <= n; ++k) {
     check_planck_range(tables, column.temperature_level_k[k], "temperature_level", static_cast<long>(k));
     gpoint_sources(tables, column.temperature_level_k[k], ws.band_source.data(), out.source_level.data() + k * n_g);
+  }
+  for (std::size_t i = 0; i < n; ++i) {
+    check_planck_range(tables, column.temperature_layer_k[i], "temperature_layer", static_cast<long>(i));
+    gpoint_sources(tables, column.temperature_layer_k[i], ws.band_source.data(), out.source_layer.data() + i * n_g);
   }
   check_planck_range(tables, column.surface_temperature_k, "surface_temperature", std::nullopt);
   gpoint_sources(tables, column.surface_temperature_k, ws.band_source.data(), out.source_surface.data());

@@ -53,16 +53,18 @@ LongwaveResult solve_grey_longwave(const atmosphere::Column& column, const GreyO
                                    const AngularQuadrature& angles) {
   const std::vector<double> tau = grey_optical_depth(column, optics); // validates column and optics
   const std::size_t n = column.layer_count();
-  std::vector<double> source(n + 1);
+  std::vector<double> source(n + 1), source_layer(n);
   for (std::size_t k = 0; k <= n; ++k)
     source[k] = grey_source_w_m2_sr(column.temperature_level_k[k]);
+  for (std::size_t i = 0; i < n; ++i)
+    source_layer[i] = grey_source_w_m2_sr(column.temperature_layer_k[i]);
 
   LongwaveResult result;
   result.flux_up.resize(n + 1);
   result.flux_down.resize(n + 1);
   result.heating_rate_k_day.resize(n);
-  longwave_fluxes(tau, source, grey_source_w_m2_sr(column.surface_temperature_k), column.surface_emissivity, angles,
-                  result.flux_up, result.flux_down);
+  longwave_fluxes(tau, source, source_layer, grey_source_w_m2_sr(column.surface_temperature_k),
+                  column.surface_emissivity, angles, result.flux_up, result.flux_down);
   heating_rate_k_day(column.pressure_level_pa, result.flux_up, result.flux_down, column.gravity_m_s2,
                      result.heating_rate_k_day);
   return result;

@@ -23,13 +23,16 @@ namespace {
 // reduction leaves n = 0 (x up to ln2/2), r = -x exactly and a = x - x^2 s(-x), so
 // g = 1 - a/x = x s(-x) with no cancellation; beyond, a/x <= 0.85 and 1 - a/x loses under one
 // digit. Both stay within a few 1e-16 relative for every x >= 0, x = 0 included (a = g = 0).
-inline void layer_factors(double x, double& absorptance, double& linear_source) noexcept {
+// Returned: a and the exit-side factor c = 2 g - a = a w(x) of longwave.cpp (c ~ x^2/6 for small
+// x, computed with an absolute error ~1e-16 x, negligible next to the layer's emission x B_layer).
+inline void layer_factors(double x, double& absorptance, double& exit_factor) noexcept {
   const detail::Expm1Parts e = detail::expm1_parts(-x);
   const double a = -(e.scale * (e.r + e.r * (e.r * e.s)) + (e.scale - 1.0));
   const bool reduced = e.n != 0.0;
   const double safe_x = reduced ? x : 1.0;
+  const double g = reduced ? 1.0 - a / safe_x : x * e.s;
   absorptance = a;
-  linear_source = reduced ? 1.0 - a / safe_x : x * e.s;
+  exit_factor = 2.0 * g - a;
 }
 
 [[noreturn]] void fail(const char* item, std::size_t level, const std::string& message) {
@@ -52,15 +55,15 @@ void check_range(std::span<const double> values, double lo, double hi, const cha
 // upward pass, radiance updated and its flux contribution added at the level below.
 BANDSTACK_VECTOR_CLONES
 void down_through_layer(std::size_t n, double inv_mu, double pi_w, const double* __restrict tau,
-                        const double* __restrict b_in, const double* __restrict b_out, double* __restrict a,
-                        double* __restrict g, double* __restrict radiance, double* __restrict flux) {
+                        const double* __restrict b_layer, const double* __restrict b_exit, double* __restrict a,
+                        double* __restrict c, double* __restrict radiance, double* __restrict flux) {
   for (std::size_t q = 0; q < n; ++q) {
-    double aq, gq;
-    layer_factors(tau[q] * inv_mu, aq, gq);
+    double aq, cq;
+    layer_factors(tau[q] * inv_mu, aq, cq);
     a[q] = aq;
-    g[q] = gq;
+    c[q] = cq;
     double r = radiance[q];
-    r += -aq * (r - b_in[q]) + gq * (b_out[q] - b_in[q]);
+    r += -aq * (r - b_layer[q]) + cq * (b_exit[q] - b_layer[q]);
     radiance[q] = r;
     flux[q] += pi_w * r;
   }
@@ -68,12 +71,12 @@ void down_through_layer(std::size_t n, double inv_mu, double pi_w, const double*
 
 // One layer for every point, upward, with the factors of the downward pass.
 BANDSTACK_VECTOR_CLONES
-void up_through_layer(std::size_t n, double pi_w, const double* __restrict b_in, const double* __restrict b_out,
-                      const double* __restrict a, const double* __restrict g, double* __restrict radiance,
+void up_through_layer(std::size_t n, double pi_w, const double* __restrict b_layer, const double* __restrict b_exit,
+                      const double* __restrict a, const double* __restrict c, double* __restrict radiance,
                       double* __restrict flux) {
   for (std::size_t q = 0; q < n; ++q) {
     double r = radiance[q];
-    r += -a[q] * (r - b_in[q]) + g[q] * (b_out[q] - b_in[q]);
+    r += -a[q] * (r - b_layer[q]) + c[q] * (b_exit[q] - b_layer[q]);
     radiance[q] = r;
     flux[q] += pi_w * r;
   }
@@ -82,9 +85,9 @@ void up_through_layer(std::size_t n, double pi_w, const double* __restrict b_in,
 } // namespace
 
 void longwave_fluxes_many(std::size_t point_count, std::span<const double> tau, std::span<const double> source_level,
-                          std::span<const double> source_surface, std::span<const double> surface_emissivity,
-                          const AngularQuadrature& angles, std::span<double> flux_up, std::span<double> flux_down,
-                          LongwaveManyWorkspace& workspace) {
+                          std::span<const double> source_layer, std::span<const double> source_surface,
+                          std::span<const double> surface_emissivity, const AngularQuadrature& angles,
+                          std::span<double> flux_up, std::span<double> flux_down, LongwaveManyWorkspace& workspace) {
   const std::size_t n = point_count;
   if (n == 0) fail("spectral_points", 0, "the longwave solver needs at least one spectral point");
   if (tau.empty() || tau.size() % n != 0)
@@ -97,6 +100,10 @@ void longwave_fluxes_many(std::size_t point_count, std::span<const double> tau, 
     fail("planck_source_level", 0,
          "has " + std::to_string(source_level.size()) + " values, expected (layers + 1) x points = " +
              std::to_string(level_values));
+  if (source_layer.size() != layers * n)
+    fail("planck_source_layer", 0,
+         "has " + std::to_string(source_layer.size()) +
+             " values, expected layers x points = " + std::to_string(layers * n));
   if (source_surface.size() != n || surface_emissivity.size() != n)
     fail("planck_source_surface", 0, "surface source and emissivity need one value per spectral point");
   if (flux_up.size() != level_values || flux_down.size() != level_values)
@@ -105,6 +112,7 @@ void longwave_fluxes_many(std::size_t point_count, std::span<const double> tau, 
   constexpr double largest = std::numeric_limits<double>::max();
   check_range(tau, 0.0, largest, "optical_depth", n, "must be finite and >= 0");
   check_range(source_level, 0.0, largest, "planck_source_level", n, "must be finite and >= 0");
+  check_range(source_layer, 0.0, largest, "planck_source_layer", n, "must be finite and >= 0");
   check_range(source_surface, 0.0, largest, "planck_source_surface", n, "must be finite and >= 0");
   check_range(surface_emissivity, 0.0, 1.0, "surface_emissivity", n, "must lie in [0, 1]");
 
@@ -117,16 +125,17 @@ void longwave_fluxes_many(std::size_t point_count, std::span<const double> tau, 
   double* __restrict up = flux_up.data();
   double* __restrict down = flux_down.data();
   const double* __restrict b = source_level.data();
+  const double* __restrict b_layer = source_layer.data();
   const double* __restrict t = tau.data();
   for (std::size_t m = 0; m < level_values; ++m) {
     up[m] = 0.0;
     down[m] = 0.0;
   }
 
-  // Per direction and layer, exactly the update of longwave_fluxes (longwave.cpp, which cites the
-  // linear-in-tau solution): I_out = I_in - a (I_in - B_in) + g (B_out - B_in).
+  // Per direction and layer, exactly the update of longwave_fluxes (longwave.cpp, which derives
+  // it): I_out = I_in - a (I_in - B_layer) + c (B_exit - B_layer), c = a w(x).
   double* a_all = workspace.absorptance.data();
-  double* g_all = workspace.linear_source.data();
+  double* c_all = workspace.linear_source.data();
   for (std::size_t j = 0; j < n_dir; ++j) {
     const double inv_mu = 1.0 / angles.mu[j];
     const double pi_w = constants::pi * angles.weight[j];
@@ -134,7 +143,7 @@ void longwave_fluxes_many(std::size_t point_count, std::span<const double> tau, 
       radiance[q] = 0.0; // nothing enters at the top
     for (std::size_t i = 0; i < layers; ++i) {
       const std::size_t at = (j * layers + i) * n;
-      down_through_layer(n, inv_mu, pi_w, t + i * n, b + i * n, b + (i + 1) * n, a_all + at, g_all + at, radiance,
+      down_through_layer(n, inv_mu, pi_w, t + i * n, b_layer + i * n, b + (i + 1) * n, a_all + at, c_all + at, radiance,
                          down + (i + 1) * n);
     }
   }
@@ -155,7 +164,7 @@ void longwave_fluxes_many(std::size_t point_count, std::span<const double> tau, 
     }
     for (std::size_t i = layers; i-- > 0;) {
       const std::size_t at = (j * layers + i) * n;
-      up_through_layer(n, pi_w, b + (i + 1) * n, b + i * n, a_all + at, g_all + at, radiance, up + i * n);
+      up_through_layer(n, pi_w, b_layer + i * n, b + i * n, a_all + at, c_all + at, radiance, up + i * n);
     }
   }
 }

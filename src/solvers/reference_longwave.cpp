@@ -78,7 +78,7 @@ void add_scaled(std::size_t count, double factor, const double* __restrict value
 }
 
 struct Scratch {
-  std::vector<double> kappa, tau, source, surface, emissivity, weight, x_per_inverse_t, up, down;
+  std::vector<double> kappa, tau, source, source_layer, surface, emissivity, weight, x_per_inverse_t, up, down;
   std::vector<std::size_t> segment_band, segment_end; // bands met in a chunk and where each ends
   LongwaveManyWorkspace kernel;
 };
@@ -140,7 +140,8 @@ LongwaveResult solve_reference_longwave(const atmosphere::Column& column, const 
         add_scaled(len, m, s.kappa.data(), s.tau.data() + i * len);
       }
 
-    // Planck radiances of the intervals (midpoint rule) and the emissivity of their bands.
+    // Planck radiances of the intervals (midpoint rule) at the levels, layers and surface, and the
+    // emissivity of their bands.
     s.weight.resize(len);
     s.x_per_inverse_t.resize(len);
     s.emissivity.resize(len);
@@ -154,6 +155,10 @@ LongwaveResult solve_reference_longwave(const atmosphere::Column& column, const 
     for (std::size_t k = 0; k < levels; ++k)
       interval_planck(len, s.weight.data(), s.x_per_inverse_t.data(), column.temperature_level_k[k],
                       s.source.data() + k * len);
+    s.source_layer.resize(n * len);
+    for (std::size_t i = 0; i < n; ++i)
+      interval_planck(len, s.weight.data(), s.x_per_inverse_t.data(), column.temperature_layer_k[i],
+                      s.source_layer.data() + i * len);
     interval_planck(len, s.weight.data(), s.x_per_inverse_t.data(), column.surface_temperature_k, s.surface.data());
 
     // Band of each point: the midpoints increase, so the band index only moves forward.
@@ -172,7 +177,8 @@ LongwaveResult solve_reference_longwave(const atmosphere::Column& column, const 
 
     s.up.resize(levels * len);
     s.down.resize(levels * len);
-    longwave_fluxes_many(len, s.tau, s.source, s.surface, s.emissivity, angles, s.up, s.down, s.kernel);
+    longwave_fluxes_many(len, s.tau, s.source, s.source_layer, s.surface, s.emissivity, angles, s.up, s.down,
+                         s.kernel);
 
     // Chunk sums per band segment, then added to the band totals: a fixed order.
     std::size_t begin = 0;

@@ -28,7 +28,21 @@ TEST_F(Cli, DemoWritesResult) {
   const Outcome r = invoke("demo --out " + dir_.string());
   ASSERT_EQ(r.exit_code, 0) << r.output;
   EXPECT_TRUE(fs::exists(dir_ / "tarrow_sound_demo.nc"));
+  EXPECT_TRUE(fs::exists(dir_ / "equilibrium_demo.nc"));
   EXPECT_NE(r.output.find("warm_pool_buoy"), std::string::npos) << r.output;
+  EXPECT_NE(r.output.find("doubled_co2"), std::string::npos) << r.output; // the experiments' summary
+}
+
+TEST_F(Cli, EquilibriumThatCannotBeReachedIsAnErrorWithoutOutput) {
+  // One Newton step and no time marching cannot bring a column to equilibrium.
+  const fs::path study = write("s.toml", "[grid]\nlayers = 20\n[equilibrium]\nmax_newton_iterations = 1\n"
+                                         "time_marching_fallback = false\n[[columns]]\nname=\"t\"\nprofile=\"tropical\"\n"
+                                         "[output]\nfile=\"r.nc\"\n");
+  const Outcome r = invoke("run " + study.string() + " --out " + dir_.string());
+  EXPECT_EQ(r.exit_code, 2) << r.output;
+  EXPECT_NE(r.output.find("columns[0] \"t\""), std::string::npos) << r.output;
+  EXPECT_NE(r.output.find("did not converge in 1 iterations"), std::string::npos) << r.output;
+  EXPECT_FALSE(fs::exists(dir_ / "r.nc"));
 }
 
 TEST_F(Cli, RunStudyWritesIntoOutFolder) {

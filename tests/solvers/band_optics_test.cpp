@@ -4,6 +4,7 @@
 #include "bandstack/spectral/planck.hpp"
 #include "solvers/band_test_support.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <gtest/gtest.h>
 #include <string>
@@ -123,8 +124,8 @@ TEST(BandOptics, LowPressureExtrapolation) {
 }
 
 // Out of the tables: pressure above the highest node, layer temperatures outside the reference
-// temperatures and level or surface temperatures outside the Planck temperatures are errors that
-// name the level (issue 3: "clear error outside the table's range").
+// temperatures and level, layer or surface temperatures outside the Planck temperatures are errors
+// that name the level (issue 3: "clear error outside the table's range").
 TEST(BandOptics, OutOfRangeStatesAreErrors) {
   const auto kappa = [](Absorber, std::size_t, double, double) { return 1.0; };
   const auto set = band_test::make_band_set({10.0, 3000.0}, 1, p_nodes, t_nodes, planck_nodes, {Absorber::co2}, kappa);
@@ -154,6 +155,23 @@ TEST(BandOptics, OutOfRangeStatesAreErrors) {
   auto surface = band_test::make_column(3, 1000.0, 100000.0, 220.0, 290.0);
   surface.surface_temperature_k = 99.0;
   expect_error(surface, "surface_temperature", std::nullopt, "Planck temperatures");
+  {
+    // Layer sources need the layer temperature inside the Planck temperatures too (here narrower
+    // than the reference temperatures).
+    const auto narrow = band_test::make_band_set({10.0, 3000.0}, 1, p_nodes, t_nodes, band_test::linear_nodes(200.0, 300.0, 21),
+                                                 {Absorber::co2}, kappa);
+    const auto narrow_tables = bs::make_band_optics_tables(narrow);
+    auto cool_layer = band_test::make_column(3, 1000.0, 100000.0, 220.0, 290.0);
+    cool_layer.temperature_layer_k[0] = 190.0; // inside [160, 340] K, outside [200, 300] K
+    try {
+      bs::compute_band_optics(cool_layer, narrow_tables, optics, ws);
+      ADD_FAILURE() << "expected an InputError for the layer's Planck source";
+    } catch (const bandstack::InputError& e) {
+      EXPECT_EQ(e.place().item, "temperature_layer");
+      EXPECT_EQ(e.place().level, 0);
+      EXPECT_NE(std::string(e.what()).find("Planck temperatures"), std::string::npos) << e.what();
+    }
+  }
   // Exactly on the table's edges is inside.
   auto edge = band_test::make_column(2, 1000.0, 110000.0, 160.0, 340.0);
   edge.pressure_layer_pa[1] = 110000.0;
@@ -165,6 +183,7 @@ TEST(BandOptics, OutOfRangeStatesAreErrors) {
 // (Planck fractions sum to 1 per band), to the documented accuracy of the Hermite table: 1e-9 of
 // the band radiance or 1e-12 of sigma T^4 / pi, whichever is larger. Band integrals from
 // spectral::planck_band_radiance (itself checked against quadrature and handbook fractions).
+// Levels, the layer (at its own temperature, within the reference temperatures) and the surface.
 TEST(BandOptics, PlanckSourcesSumToBandRadiance) {
   std::vector<double> edges{10, 250, 350, 500, 580, 630, 667, 700, 820, 980, 1080, 1180, 1390, 1480, 1800, 2080, 2500, 3000};
   const std::size_t per_band = 4;
@@ -181,6 +200,8 @@ TEST(BandOptics, PlanckSourcesSumToBandRadiance) {
     auto column = band_test::make_column(1, 1000.0, 100000.0, 200.0, 200.0);
     column.temperature_level_k = {t, t};
     column.surface_temperature_k = t;
+    const double t_layer = std::min(std::max(t - 7.0, 160.0), 340.0);
+    column.temperature_layer_k = {t_layer};
     bs::BandOptics optics;
     bs::BandOpticsWorkspace ws;
     bs::compute_band_optics(column, tables, optics, ws);
@@ -191,6 +212,11 @@ TEST(BandOptics, PlanckSourcesSumToBandRadiance) {
       const double exact = sp::planck_band_radiance(edges[b], edges[b + 1], t);
       const double tolerance = 1e-9 * exact + 1e-12 * total;
       EXPECT_NEAR(sum, exact, tolerance) << "band " << b << " T " << t;
+      double layer_sum = 0.0;
+      for (std::size_t g = b * per_band; g < (b + 1) * per_band; ++g) layer_sum += optics.source_layer[g];
+      const double exact_layer = sp::planck_band_radiance(edges[b], edges[b + 1], t_layer);
+      EXPECT_NEAR(layer_sum, exact_layer, 1e-9 * exact_layer + 1e-12 * total) << "band " << b << " T " << t_layer;
+      EXPECT_NEAR(optics.source_layer[b * per_band + 2] / layer_sum, fraction(2, t_layer), 1e-13);
       EXPECT_NEAR(bs::tabulated_band_radiance(tables, b, t), exact, tolerance);
       // Each g-point carries its interpolated fraction (here linear in T, so exactly).
       EXPECT_NEAR(optics.source_surface[b * per_band + 1] / sum, fraction(1, t), 1e-13);
@@ -224,6 +250,7 @@ TEST(BandOptics, WorkspaceReuseIsStateless) {
   bs::compute_band_optics(column, tables, second, ws);
   EXPECT_EQ(first.optical_depth, second.optical_depth);
   EXPECT_EQ(first.source_level, second.source_level);
+  EXPECT_EQ(first.source_layer, second.source_layer);
   EXPECT_EQ(first.source_surface, second.source_surface);
   const auto m = mass(column, Gas::co2);
   const double p = column.pressure_layer_pa[0];

@@ -26,8 +26,9 @@ constexpr double sigma = constants::stefan_boltzmann_w_m2_k4;
 //   F_up(tau) = OLR (1 + D tau / 2),  F_down(tau) = OLR D tau / 2,
 // and the ground is warmer than the air above it: sigma Tg^4 = OLR (1 + D tau_s / 2), which
 // exceeds sigma T^4(tau_s) by OLR / 2 (the ground temperature discontinuity). The source is
-// linear in tau, so the linear-in-tau kernel with one direction mu = 1/D solves it exactly on
-// any layering.
+// linear in tau, so the kernel (linear in tau through each layer's value at its optical-depth
+// centre and the exit level's value, longwave.hpp) with one direction mu = 1/D solves it exactly
+// on any layering when the layer sources are the profile's values at the layer centres.
 constexpr double diffusivity = 1.66;
 constexpr double olr_target = 240.0; // W m-2, chosen
 constexpr double tau_surface = 6.0;  // chosen
@@ -39,17 +40,20 @@ double ground_source() { return olr_target / pi * (1.0 + diffusivity * tau_surfa
 
 TEST(GreyEquilibrium, TwoStreamProfileHasNoFluxDivergence) {
   const int n = 120;
-  std::vector<double> tau_level(n + 1), tau(n), source(n + 1), pressure(n + 1);
+  std::vector<double> tau_level(n + 1), tau(n), source(n + 1), source_layer(n), pressure(n + 1);
   for (int k = 0; k <= n; ++k) {
     const double s = static_cast<double>(k) / n;
     tau_level[k] = tau_surface * s * s * (3.0 - 2.0 * s); // uneven: thin layers at both ends
     pressure[k] = 1e5 * s;
     source[k] = equilibrium_source(tau_level[k]);
   }
-  for (int i = 0; i < n; ++i)
+  for (int i = 0; i < n; ++i) {
     tau[i] = tau_level[i + 1] - tau_level[i];
+    source_layer[i] = equilibrium_source(0.5 * (tau_level[i] + tau_level[i + 1]));
+  }
   std::vector<double> up(n + 1), down(n + 1), heating(n);
-  bs::longwave_fluxes(tau, source, ground_source(), 1.0, bs::diffusivity_quadrature(diffusivity), up, down);
+  bs::longwave_fluxes(tau, source, source_layer, ground_source(), 1.0, bs::diffusivity_quadrature(diffusivity), up,
+                      down);
   bs::heating_rate_k_day(pressure, up, down, constants::standard_gravity_m_s2, heating);
 
   EXPECT_NEAR(up[0], olr_target, 1e-12 * olr_target);
@@ -64,7 +68,8 @@ TEST(GreyEquilibrium, TwoStreamProfileHasNoFluxDivergence) {
 }
 
 // The same state as a Column through the grey optics (tau proportional to pressure) and the
-// one-call grey solver with level temperatures from sigma T^4 = pi B.
+// one-call grey solver with level and layer temperatures from sigma T^4 = pi B, the layer's at its
+// optical-depth centre (here its pressure centre, tau being proportional to pressure).
 TEST(GreyEquilibrium, TwoStreamColumnThroughGreySolver) {
   const int n = 60;
   const double p_surface = 1e5;
@@ -77,7 +82,8 @@ TEST(GreyEquilibrium, TwoStreamColumnThroughGreySolver) {
   }
   for (int i = 0; i < n; ++i) {
     column.pressure_layer_pa.push_back(0.5 * (column.pressure_level_pa[i] + column.pressure_level_pa[i + 1]));
-    column.temperature_layer_k.push_back(0.5 * (column.temperature_level_k[i] + column.temperature_level_k[i + 1]));
+    const double tau_centre = tau_surface * column.pressure_layer_pa[i] / p_surface;
+    column.temperature_layer_k.push_back(std::pow(pi * equilibrium_source(tau_centre) / sigma, 0.25));
   }
   for (auto& x : column.mole_fraction)
     x.assign(n, 0.0);
@@ -108,7 +114,7 @@ TEST(GreyEquilibrium, OpaqueLayersGreenhouseModel) {
   const double te = std::pow(absorbed_solar / sigma, 0.25);
   for (int n_opaque : {1, 2, 5}) {
     const int n = 2 * n_opaque - 1; // opaque layers at even indices, spacers between
-    std::vector<double> tau(n, 0.0), source(n + 1), up(n + 1), down(n + 1);
+    std::vector<double> tau(n, 0.0), source(n + 1), source_layer(n), up(n + 1), down(n + 1);
     for (int i = 0; i < n; i += 2)
       tau[i] = 50.0;
     std::vector<double> emission(n_opaque, 0.5 * absorbed_solar); // sigma T^4 of each opaque layer
@@ -118,8 +124,10 @@ TEST(GreyEquilibrium, OpaqueLayersGreenhouseModel) {
     double worst = 0.0;
     for (int iteration = 0; iteration < 20000; ++iteration) {
       for (int m = 0; m < n_opaque; ++m)
-        source[2 * m] = source[2 * m + 1] = emission[m] / pi;
-      bs::longwave_fluxes(tau, source, surface_emission / pi, 1.0, q, up, down, ws);
+        source[2 * m] = source[2 * m + 1] = source_layer[2 * m] = emission[m] / pi;
+      for (int m = 0; m + 1 < n_opaque; ++m) // a transparent spacer emits nothing; any value will do
+        source_layer[2 * m + 1] = 0.5 * (source[2 * m + 1] + source[2 * m + 2]);
+      bs::longwave_fluxes(tau, source, source_layer, surface_emission / pi, 1.0, q, up, down, ws);
       worst = 0.0;
       for (int m = 0; m < n_opaque; ++m) {
         const int i = 2 * m;

@@ -24,11 +24,18 @@ struct Fluxes {
   std::vector<double> up, down;
 };
 
-Fluxes solve(const std::vector<double>& tau, const std::vector<double>& source, double source_surface,
-             double emissivity, const bs::AngularQuadrature& angles) {
+Fluxes solve(const std::vector<double>& tau, const std::vector<double>& source, const std::vector<double>& source_layer,
+             double source_surface, double emissivity, const bs::AngularQuadrature& angles) {
   Fluxes f{std::vector<double>(tau.size() + 1), std::vector<double>(tau.size() + 1)};
-  bs::longwave_fluxes(tau, source, source_surface, emissivity, angles, f.up, f.down);
+  bs::longwave_fluxes(tau, source, source_layer, source_surface, emissivity, angles, f.up, f.down);
   return f;
+}
+
+// An isothermal column: the same source at every level and layer.
+Fluxes solve_isothermal(const std::vector<double>& tau, double source, double source_surface, double emissivity,
+                        const bs::AngularQuadrature& angles) {
+  return solve(tau, std::vector<double>(tau.size() + 1, source), std::vector<double>(tau.size(), source),
+               source_surface, emissivity, angles);
 }
 
 // Quadrature estimate of 2 E3(tau) = int_0^1 2 mu exp(-tau/mu) dmu.
@@ -59,8 +66,7 @@ TEST(LongwaveKernel, ThinLimitSeesTheSurface) {
   const double ts = 290.0;
   for (double e : {1.0, 0.9, 0.0}) {
     const std::vector<double> tau(10, 1e-13);
-    const std::vector<double> source(11, planck_grey(250.0));
-    const Fluxes f = solve(tau, source, planck_grey(ts), e, bs::gauss_quadrature(4));
+    const Fluxes f = solve_isothermal(tau, planck_grey(250.0), planck_grey(ts), e, bs::gauss_quadrature(4));
     EXPECT_NEAR(f.up[0], e * sigma * std::pow(ts, 4), 1e-9) << "emissivity " << e;
     EXPECT_NEAR(f.down.back(), 0.0, 1e-9);
     EXPECT_EQ(f.down[0], 0.0);
@@ -79,9 +85,8 @@ TEST(LongwaveKernel, IsothermalSlabOverSurfaceMatchesExponentialIntegral) {
   for (double tau : {1e-4, 1e-2, 0.1, 0.5, 1.0, 2.0, 5.0, 10.0}) {
     const double exact = sigma * std::pow(t, 4) + 2.0 * boost::math::expint(3, tau) * contrast;
     const std::vector<double> layers = split(tau, {1, 2, 3});
-    const std::vector<double> source(layers.size() + 1, planck_grey(t));
-    const Fluxes eight = solve(layers, source, planck_grey(ts), 1.0, bs::gauss_quadrature(8));
-    const Fluxes two = solve(layers, source, planck_grey(ts), 1.0, bs::gauss_quadrature(2));
+    const Fluxes eight = solve_isothermal(layers, planck_grey(t), planck_grey(ts), 1.0, bs::gauss_quadrature(8));
+    const Fluxes two = solve_isothermal(layers, planck_grey(t), planck_grey(ts), 1.0, bs::gauss_quadrature(2));
     EXPECT_NEAR(eight.up[0], exact, 1e-4 * contrast) << "tau " << tau;
     EXPECT_LE(std::abs(eight.up[0] - exact), std::abs(two.up[0] - exact)) << "tau " << tau;
   }
@@ -94,8 +99,7 @@ TEST(LongwaveKernel, DiffusivityTransmissionIsExponential) {
   for (double tau : {1e-8, 1e-3, 0.03, 0.3, 3.0, 30.0}) {
     const double expected = sigma * std::pow(t, 4) + std::exp(-1.66 * tau) * sigma * (std::pow(ts, 4) - std::pow(t, 4));
     const std::vector<double> layers = split(tau, {5, 1, 2, 7});
-    const std::vector<double> source(layers.size() + 1, planck_grey(t));
-    const Fluxes f = solve(layers, source, planck_grey(ts), 1.0, bs::diffusivity_quadrature(1.66));
+    const Fluxes f = solve_isothermal(layers, planck_grey(t), planck_grey(ts), 1.0, bs::diffusivity_quadrature(1.66));
     EXPECT_NEAR(f.up[0], expected, 1e-12 * expected) << "tau " << tau;
   }
 }
@@ -107,8 +111,7 @@ TEST(LongwaveKernel, ThinLayerFirstOrderCorrection) {
   const double t = 220.0, ts = 288.0;
   const double contrast = sigma * (std::pow(ts, 4) - std::pow(t, 4));
   for (double tau : {1e-6, 1e-5, 1e-4}) {
-    const std::vector<double> source(2, planck_grey(t));
-    const Fluxes f = solve({tau}, source, planck_grey(ts), 1.0, bs::gauss_quadrature(8));
+    const Fluxes f = solve_isothermal({tau}, planck_grey(t), planck_grey(ts), 1.0, bs::gauss_quadrature(8));
     const double slope = (sigma * std::pow(ts, 4) - f.up[0]) / (tau * contrast);
     EXPECT_NEAR(slope, 2.0, 0.03) << "tau " << tau;
   }
@@ -116,24 +119,79 @@ TEST(LongwaveKernel, ThinLayerFirstOrderCorrection) {
 
 // Thick limit: each layer opaque, so the top sees only the top of the top layer and the surface
 // only the bottom of the lowest layer: OLR = sigma T_top^4, surface down = sigma T_lowest^4
-// (black-body limit, common practice). Isothermal: exact. With a lapse rate the linear-in-tau
-// source gives a correction of order (dB/dtau) mu, here below 1e-7 relative for tau = 1e6.
+// (black-body limit, common practice). Isothermal: exact. With a lapse rate (layer temperatures
+// midway between their levels) the source's slope gives a correction of order (dB/dtau) mu, here
+// below 1e-7 relative for tau = 1e6.
 TEST(LongwaveKernel, ThickLimitSeesTheNearestLevel) {
   const std::vector<double> tau(20, 1e6);
   {
-    const std::vector<double> source(21, planck_grey(250.0));
-    const Fluxes f = solve(tau, source, planck_grey(300.0), 1.0, bs::gauss_quadrature(4));
+    const Fluxes f = solve_isothermal(tau, planck_grey(250.0), planck_grey(300.0), 1.0, bs::gauss_quadrature(4));
     EXPECT_NEAR(f.up[0], sigma * std::pow(250.0, 4), 1e-13 * f.up[0]);
     EXPECT_NEAR(f.down.back(), sigma * std::pow(250.0, 4), 1e-13 * f.up[0]);
   }
-  std::vector<double> t_level(21), source(21);
+  std::vector<double> t_level(21), source(21), source_layer(20);
   for (std::size_t k = 0; k <= 20; ++k) {
     t_level[k] = 200.0 + 4.0 * static_cast<double>(k);
     source[k] = planck_grey(t_level[k]);
   }
-  const Fluxes f = solve(tau, source, planck_grey(300.0), 1.0, bs::gauss_quadrature(4));
+  for (std::size_t i = 0; i < 20; ++i)
+    source_layer[i] = planck_grey(202.0 + 4.0 * static_cast<double>(i));
+  const Fluxes f = solve(tau, source, source_layer, planck_grey(300.0), 1.0, bs::gauss_quadrature(4));
   EXPECT_NEAR(f.up[0], sigma * std::pow(t_level[0], 4), 1e-7 * f.up[0]);
   EXPECT_NEAR(f.down.back(), sigma * std::pow(t_level[20], 4), 1e-7 * f.down.back());
+}
+
+// Optically thin layer: to first order in the slant optical depth x = tau/mu, the Schwarzschild
+// equation gives I_out = I_in + x (B_layer - I_in) (formal solution, Chandrasekhar 1960, ch. 1;
+// from memory), with B_layer the source inside the layer. So a thin layer in front of nothing
+// emits x B(T_layer) whatever its level temperatures are; the level values only enter at order x^2
+// (here x^2/6 (B_exit - B_layer), longwave.hpp). The old kernel, with sources only at the levels,
+// emitted x (B_top + B_bottom)/2 instead and so could not see a layer's own temperature.
+TEST(LongwaveKernel, ThinLayerEmitsAtItsLayerTemperature) {
+  const double b_layer = planck_grey(230.0);
+  const std::vector<std::vector<double>> level_sources = {
+      {planck_grey(180.0), planck_grey(300.0)}, {planck_grey(300.0), planck_grey(180.0)}, {b_layer, b_layer}};
+  for (double mu : {1.0, 0.3}) {
+    const bs::AngularQuadrature one_direction{{mu}, {1.0}};
+    for (double tau : {1e-8, 1e-6, 1e-4, 1e-3}) {
+      const double x = tau / mu;
+      std::vector<double> up_emission, down_emission;
+      for (const auto& levels : level_sources) {
+        const Fluxes f = solve({tau}, levels, {b_layer}, 0.0, 1.0, one_direction); // black, cold surface
+        up_emission.push_back(f.up[0] / pi);
+        down_emission.push_back(f.down[1] / pi);
+        // Relative deviation from x B_layer is of order x (-x/2 from 1 - e^-x, x/6 from the levels).
+        EXPECT_NEAR(f.up[0] / pi / (x * b_layer), 1.0, 1.5 * x) << "mu " << mu << ", tau " << tau;
+        EXPECT_NEAR(f.down[1] / pi / (x * b_layer), 1.0, 1.5 * x) << "mu " << mu << ", tau " << tau;
+      }
+      // Level sources that differ by a factor 7.7 change the emission only at order x^2:
+      // |x^2/6 (B_exit - B_layer)| <= x^2 * 0.6 B_layer here.
+      for (std::size_t m = 1; m < level_sources.size(); ++m) {
+        EXPECT_LE(std::abs(up_emission[m] - up_emission[0]), 0.6 * x * x * b_layer) << "tau " << tau;
+        EXPECT_LE(std::abs(down_emission[m] - down_emission[0]), 0.6 * x * x * b_layer) << "tau " << tau;
+      }
+    }
+  }
+}
+
+// Optically thick layer: the radiance leaving it approaches the source at the exit level, with
+// the first correction of the diffusion (Eddington-Barbier) limit, I_out = B_exit - mu dB/dtau
+// (Chandrasekhar 1960, ch. 1; from memory). For the kernel's source, linear from B_layer at the
+// centre to B_exit at the exit, mu dB/dtau = 2 (B_exit - B_layer) / x, and the remaining error is
+// of order e^{-x}: I_out = B_exit - 2 (B_exit - B_layer) / x. Whatever enters (a hot surface below,
+// nothing above) is forgotten.
+TEST(LongwaveKernel, ThickLayerExitsAtTheExitLevelSource) {
+  const double b_top = planck_grey(210.0), b_bottom = planck_grey(260.0), b_layer = planck_grey(240.0);
+  for (double mu : {1.0, 0.3}) {
+    const bs::AngularQuadrature one_direction{{mu}, {1.0}};
+    for (double tau : {40.0, 1e3, 1e6}) {
+      const double x = tau / mu;
+      const Fluxes f = solve({tau}, {b_top, b_bottom}, {b_layer}, planck_grey(320.0), 1.0, one_direction);
+      const double up = f.up[0] / pi, down = f.down[1] / pi;
+      EXPECT_NEAR(up, b_top - 2.0 * (b_top - b_layer) / x, 1e-13 * b_bottom) << "mu " << mu << ", tau " << tau;
+      EXPECT_NEAR(down, b_bottom - 2.0 * (b_bottom - b_layer) / x, 1e-13 * b_bottom) << "mu " << mu << ", tau " << tau;
+    }
+  }
 }
 
 // Kirchhoff's law with a Lambertian surface under an opaque isothermal atmosphere at T: the
@@ -141,8 +199,7 @@ TEST(LongwaveKernel, ThickLimitSeesTheNearestLevel) {
 TEST(LongwaveKernel, GreySurfaceReflectsDiffusely) {
   const double t = 260.0, ts = 280.0, e = 0.85;
   const std::vector<double> tau(3, 1e4);
-  const std::vector<double> source(4, planck_grey(t));
-  const Fluxes f = solve(tau, source, planck_grey(ts), e, bs::gauss_quadrature(3));
+  const Fluxes f = solve_isothermal(tau, planck_grey(t), planck_grey(ts), e, bs::gauss_quadrature(3));
   EXPECT_NEAR(f.up.back(), e * sigma * std::pow(ts, 4) + (1 - e) * sigma * std::pow(t, 4), 1e-12 * f.up.back());
 }
 
@@ -161,8 +218,7 @@ TEST(LongwaveKernel, IsothermalSlabEmissionIndependentOfLayering) {
     double reference = -1.0;
     for (const auto& parts : layerings) {
       const std::vector<double> layers = split(tau, parts);
-      const std::vector<double> source(layers.size() + 1, planck_grey(t));
-      const Fluxes f = solve(layers, source, 0.0, 1.0, q);
+      const Fluxes f = solve_isothermal(layers, planck_grey(t), 0.0, 1.0, q);
       const double emissivity = f.up[0] / (sigma * std::pow(t, 4));
       EXPECT_NEAR(emissivity, per_direction, 1e-13 + 1e-12 * per_direction) << "tau " << tau;
       EXPECT_NEAR(emissivity, exact_angles, 1e-4) << "tau " << tau;
@@ -173,20 +229,26 @@ TEST(LongwaveKernel, IsothermalSlabEmissionIndependentOfLayering) {
   }
 }
 
-// A source linear in optical depth through the whole column is represented exactly by any
-// layering, so cutting the layers further must not change any flux (1e-12 relative).
+// A source linear in optical depth through the whole column, with each layer's value taken at its
+// optical-depth centre, is represented exactly by any layering (the layer value and the exit
+// level's value fix the line, longwave.hpp), so cutting the layers further must not change any
+// flux (1e-12 relative).
 TEST(LongwaveKernel, LinearSourceIndependentOfLayering) {
   const double tau_total = 7.0, b_top = 20.0, b_bottom = 130.0;
   auto source_at = [&](double t) { return b_top + (b_bottom - b_top) * t / tau_total; };
   const bs::AngularQuadrature q = bs::gauss_quadrature(4);
   auto run = [&](int n) {
-    std::vector<double> tau(n), source(n + 1);
+    std::vector<double> tau(n), source(n + 1), source_layer(n);
     for (int k = 0; k <= n; ++k) {
       const double tk = tau_total * std::pow(static_cast<double>(k) / n, 2); // uneven layers
       source[k] = source_at(tk);
-      if (k > 0) tau[k - 1] = tk - tau_total * std::pow(static_cast<double>(k - 1) / n, 2);
+      if (k > 0) {
+        const double above = tau_total * std::pow(static_cast<double>(k - 1) / n, 2);
+        tau[k - 1] = tk - above;
+        source_layer[k - 1] = source_at(0.5 * (above + tk));
+      }
     }
-    return solve(tau, source, 140.0, 0.95, q);
+    return solve(tau, source, source_layer, 140.0, 0.95, q);
   };
   const Fluxes one = run(1);
   for (int n : {2, 5, 17, 200}) {
@@ -197,27 +259,33 @@ TEST(LongwaveKernel, LinearSourceIndependentOfLayering) {
   }
 }
 
-// Linear-source exactness per direction: for B(t) = B0 + (B1 - B0) t / tau in one layer the
-// formal solution of mu dI/dt = I - B (Chandrasekhar 1960, Radiative Transfer, ch. 1; from memory) gives
-//   I_down(tau) = int_0^tau B(t) e^{-(tau - t)/mu} dt/mu,
-//   I_up(0)    = I_s e^{-tau/mu} + int_0^tau B(t) e^{-t/mu} dt/mu,
+// Exactness per direction for the source the kernel assumes (longwave.hpp): along each ray B is
+// linear in optical depth through the layer value B_layer at the layer's centre t = tau/2 and the
+// level value where the ray leaves, B1 (bottom) going down and B0 (top) going up:
+//   B_down(t) = B_layer + (B1 - B_layer) (2t/tau - 1),   B_up(t) = B_layer + (B0 - B_layer) (1 - 2t/tau).
+// The formal solution of mu dI/dt = I - B (Chandrasekhar 1960, Radiative Transfer, ch. 1; from
+// memory) gives
+//   I_down(tau) = int_0^tau B_down(t) e^{-(tau - t)/mu} dt/mu,
+//   I_up(0)    = I_s e^{-tau/mu} + int_0^tau B_up(t) e^{-t/mu} dt/mu,
 // evaluated here by adaptive Gauss-Kronrod quadrature (Boost.Math), independently of the kernel.
-// One direction with weight 1 turns the flux into pi I.
-TEST(LongwaveKernel, LinearSourceIsExactPerDirection) {
-  const double b0 = 35.0, b1 = 110.0, b_surface = 125.0;
+// One direction with weight 1 turns the flux into pi I. B_layer = 60 is not the mean of the level
+// values (72.5), so the two rays see different lines, as the kernel must.
+TEST(LongwaveKernel, LayerAndExitSourceIsExactPerDirection) {
+  const double b0 = 35.0, b1 = 110.0, b_layer = 60.0, b_surface = 125.0;
   using integrator = boost::math::quadrature::gauss_kronrod<double, 31>;
   for (double mu : {0.05, 0.3, 2.0 / 3.0, 1.0}) {
     for (double tau : {1e-7, 1e-3, 0.02, 0.12, 0.26, 0.4, 2.5, 30.0}) {
       const bs::AngularQuadrature one_direction{{mu}, {1.0}};
-      auto b = [&](double t) { return b0 + (b1 - b0) * t / tau; };
+      auto b_down = [&](double t) { return b_layer + (b1 - b_layer) * (2.0 * t / tau - 1.0); };
+      auto b_up = [&](double t) { return b_layer + (b0 - b_layer) * (1.0 - 2.0 * t / tau); };
       // Substituting s = (tau - t)/mu (down) and s = t/mu (up) puts the integrands on [0, tau/mu]
       // with the factor e^{-s} smooth, which a 31-point rule integrates quickly to 1e-14 relative.
       const double x = tau / mu;
       const double down =
-          integrator::integrate([&](double s) { return b(tau - mu * s) * std::exp(-s); }, 0.0, x, 15, 1e-14);
+          integrator::integrate([&](double s) { return b_down(tau - mu * s) * std::exp(-s); }, 0.0, x, 15, 1e-14);
       const double up = b_surface * std::exp(-x) +
-                        integrator::integrate([&](double s) { return b(mu * s) * std::exp(-s); }, 0.0, x, 15, 1e-14);
-      const Fluxes f = solve({tau}, {b0, b1}, b_surface, 1.0, one_direction);
+                        integrator::integrate([&](double s) { return b_up(mu * s) * std::exp(-s); }, 0.0, x, 15, 1e-14);
+      const Fluxes f = solve({tau}, {b0, b1}, {b_layer}, b_surface, 1.0, one_direction);
       EXPECT_NEAR(f.down[1] / pi, down, 1e-13 * b1) << "mu " << mu << ", tau " << tau;
       EXPECT_NEAR(f.up[0] / pi, up, 1e-13 * b_surface) << "mu " << mu << ", tau " << tau;
     }
@@ -249,11 +317,12 @@ TEST(LongwaveKernel, WorkspaceReuseGivesSameResult) {
   bs::LongwaveWorkspace ws;
   const bs::AngularQuadrature q = bs::gauss_quadrature(3);
   std::vector<double> up(6), down(6), up2(3), down2(3);
-  const std::vector<double> tau{0.1, 2.0, 0.5, 0.01, 4.0}, source{10, 20, 30, 40, 50, 60};
-  bs::longwave_fluxes(tau, source, 65.0, 0.9, q, up, down, ws);
-  bs::longwave_fluxes(std::vector<double>{1.0, 1.0}, std::vector<double>{1, 2, 3}, 3.0, 1.0, q, up2, down2, ws);
-  const Fluxes fresh = solve(tau, source, 65.0, 0.9, q);
-  bs::longwave_fluxes(tau, source, 65.0, 0.9, q, up, down, ws);
+  const std::vector<double> tau{0.1, 2.0, 0.5, 0.01, 4.0}, source{10, 20, 30, 40, 50, 60}, layer{14, 26, 33, 47, 52};
+  bs::longwave_fluxes(tau, source, layer, 65.0, 0.9, q, up, down, ws);
+  bs::longwave_fluxes(std::vector<double>{1.0, 1.0}, std::vector<double>{1, 2, 3}, std::vector<double>{1.5, 2.5}, 3.0,
+                      1.0, q, up2, down2, ws);
+  const Fluxes fresh = solve(tau, source, layer, 65.0, 0.9, q);
+  bs::longwave_fluxes(tau, source, layer, 65.0, 0.9, q, up, down, ws);
   for (std::size_t k = 0; k < 6; ++k) {
     EXPECT_EQ(up[k], fresh.up[k]);
     EXPECT_EQ(down[k], fresh.down[k]);
@@ -263,22 +332,36 @@ TEST(LongwaveKernel, WorkspaceReuseGivesSameResult) {
 TEST(LongwaveKernel, RejectsBadInput) {
   const bs::AngularQuadrature q = bs::gauss_quadrature(2);
   std::vector<double> up(3), down(3);
-  const std::vector<double> tau{0.1, 0.2}, source{1, 2, 3};
-  EXPECT_NO_THROW(bs::longwave_fluxes(tau, source, 3.0, 1.0, q, up, down));
-  EXPECT_THROW(bs::longwave_fluxes(tau, std::vector<double>{1, 2}, 3.0, 1.0, q, up, down), bandstack::InputError);
-  EXPECT_THROW(bs::longwave_fluxes(std::vector<double>{0.1, -0.2}, source, 3.0, 1.0, q, up, down),
+  const std::vector<double> tau{0.1, 0.2}, source{1, 2, 3}, layer{1.5, 2.5};
+  EXPECT_NO_THROW(bs::longwave_fluxes(tau, source, layer, 3.0, 1.0, q, up, down));
+  EXPECT_THROW(bs::longwave_fluxes(tau, std::vector<double>{1, 2}, layer, 3.0, 1.0, q, up, down), bandstack::InputError);
+  EXPECT_THROW(bs::longwave_fluxes(tau, source, std::vector<double>{1}, 3.0, 1.0, q, up, down), bandstack::InputError);
+  EXPECT_THROW(bs::longwave_fluxes(tau, source, std::vector<double>{1, 2, 3}, 3.0, 1.0, q, up, down),
                bandstack::InputError);
-  EXPECT_THROW(bs::longwave_fluxes(std::vector<double>{0.1, std::nan("")}, source, 3.0, 1.0, q, up, down),
+  EXPECT_THROW(bs::longwave_fluxes(std::vector<double>{0.1, -0.2}, source, layer, 3.0, 1.0, q, up, down),
                bandstack::InputError);
-  EXPECT_THROW(bs::longwave_fluxes(tau, std::vector<double>{1, HUGE_VAL, 3}, 3.0, 1.0, q, up, down),
+  EXPECT_THROW(bs::longwave_fluxes(std::vector<double>{0.1, std::nan("")}, source, layer, 3.0, 1.0, q, up, down),
                bandstack::InputError);
-  EXPECT_THROW(bs::longwave_fluxes(tau, source, -3.0, 1.0, q, up, down), bandstack::InputError);
-  EXPECT_THROW(bs::longwave_fluxes(tau, source, 3.0, 1.2, q, up, down), bandstack::InputError);
-  EXPECT_THROW(bs::longwave_fluxes(tau, source, 3.0, 1.0, bs::AngularQuadrature{{0.0}, {1.0}}, up, down),
+  EXPECT_THROW(bs::longwave_fluxes(tau, std::vector<double>{1, HUGE_VAL, 3}, layer, 3.0, 1.0, q, up, down),
+               bandstack::InputError);
+  try {
+    bs::longwave_fluxes(tau, source, std::vector<double>{1.5, -1.0}, 3.0, 1.0, q, up, down);
+    FAIL() << "expected InputError for a negative layer source";
+  } catch (const bandstack::InputError& e) {
+    EXPECT_EQ(e.place().item, "planck_source_layer");
+    EXPECT_EQ(e.place().level, 1);
+  }
+  EXPECT_THROW(bs::longwave_fluxes(tau, source, std::vector<double>{std::nan(""), 2.5}, 3.0, 1.0, q, up, down),
+               bandstack::InputError);
+  EXPECT_THROW(bs::longwave_fluxes(tau, source, std::vector<double>{1.5, HUGE_VAL}, 3.0, 1.0, q, up, down),
+               bandstack::InputError);
+  EXPECT_THROW(bs::longwave_fluxes(tau, source, layer, -3.0, 1.0, q, up, down), bandstack::InputError);
+  EXPECT_THROW(bs::longwave_fluxes(tau, source, layer, 3.0, 1.2, q, up, down), bandstack::InputError);
+  EXPECT_THROW(bs::longwave_fluxes(tau, source, layer, 3.0, 1.0, bs::AngularQuadrature{{0.0}, {1.0}}, up, down),
                bandstack::InputError);
   std::vector<double> short_up(2);
-  EXPECT_THROW(bs::longwave_fluxes(tau, source, 3.0, 1.0, q, short_up, down), bandstack::InputError);
-  EXPECT_THROW(bs::longwave_fluxes(std::vector<double>{}, std::vector<double>{1}, 3.0, 1.0, q,
+  EXPECT_THROW(bs::longwave_fluxes(tau, source, layer, 3.0, 1.0, q, short_up, down), bandstack::InputError);
+  EXPECT_THROW(bs::longwave_fluxes(std::vector<double>{}, std::vector<double>{1}, std::vector<double>{}, 3.0, 1.0, q,
                                    std::span<double>(up).first(1), std::span<double>(down).first(1)),
                bandstack::InputError);
 }

@@ -38,6 +38,7 @@ struct RunOptions {
 struct RunOutcome {
   std::filesystem::path output_file;  // the file written
   std::vector<ColumnResult> results;  // one per column, in study order
+  std::vector<std::string> experiment_names; // the study's experiments, in order
 };
 
 // The whole job: checks the output folder is writable, builds, computes and writes the result file

@@ -17,6 +17,9 @@ struct WaterSettings {
   // above it. The tropopause is taken at the coldest layer (the cold point).
   double surface_relative_humidity = 0.77;
   double stratospheric_mole_fraction = 4e-6;
+  // fixed_relative_humidity: multiplies the tropospheric water from the relative humidity (experiments
+  // that scale or remove h2o); >= 0. The stratospheric value is not scaled.
+  double h2o_scale = 1.0;
 };
 
 // Level temperatures (K) from the layer temperatures of `column`: interior level k (1..N-1) is

@@ -13,17 +13,26 @@
 // convective region and the ground, which stores no heat, are in balance together).
 //
 // Newton's method: the Jacobian of all layer heating rates and the surface net flux with respect to
-// all layer temperatures and the surface temperature, by forward finite differences (N+1 radiative
-// calls, e.g. 61 for a 60-layer column), then, with broyden_update, corrected after every move by
-// Broyden's rank-one update (one call per step) and differenced afresh only when a step with the
-// updated Jacobian fails to decrease the merit after two halvings; without it, differenced every
-// step. The Newton matrix for the current unknowns follows from it by the chain rule, so a change
-// of the convective region costs no new Jacobian. Solved by Eigen's dense LU with partial
-// pivoting; each step is capped at max_step_k and shortened by halving until a weighted sum of
-// squared residuals (heating over its tolerance, fluxes over theirs) decreases. After each
-// step the convective region is revised: it grows upward over every radiative layer colder than the
-// critical profile (unstable), and shrinks from its top while the top layer would be radiatively
-// heated once the region as a whole is in balance (upward convective flux cannot be negative).
+// all layer temperatures and the surface temperature, by forward finite differences, then, with
+// broyden_update, corrected after every move by Broyden's rank-one update (no extra call) and
+// differenced afresh only when a step with the updated Jacobian fails to decrease the merit after
+// two halvings; without it, differenced every step. The Newton matrix for the current unknowns
+// follows from it by the chain rule, so a change of the convective region costs no new Jacobian.
+// Solved by Eigen's dense LU with partial pivoting; each step is capped at max_step_k and shortened
+// by halving until a weighted sum of squared residuals (heating over its tolerance, fluxes over
+// theirs) decreases. After each step the convective region is revised: it grows upward over every
+// radiative layer colder than the critical profile (unstable), and shrinks from its top while the
+// top layer would be radiatively heated once the region as a whole is in balance (upward
+// convective flux cannot be negative).
+// Jacobian by grouped_differences (the default): layers perturbed in 2b+2 groups (Curtis, Powell &
+// Reid 1974, J. Inst. Math. Appl. 13, 117-119; from memory), 2b+3 radiative calls (7 for the
+// default b = 2) instead of N+1 (61 for 60 layers); band entries exact, the slowly varying far exchange
+// approximated (src/climate/grouped_jacobian.hpp) and then corrected by Broyden's updates. A fresh
+// grouped Jacobian whose step fails is replaced by full differences. Each step also predicts the
+// convective region: the region is grown over the layers the step would leave unstable and the
+// step solved again for it (no radiative call) before the line search. If this fails, Newton's
+// method starts again from `start` with full differences (N+1 calls) and the region revised only
+// between steps, as with full_differences.
 // If Newton fails, an explicit time march with an adaptive stable step takes over from its best
 // state (march_to_equilibrium).
 //
@@ -31,6 +40,7 @@
 // tolerance and, with the surface energy balance, |TOA net flux| and |F_region| <= flux tolerance.
 // With a fixed surface temperature the TOA net flux is whatever the ground supplies and is not
 // tested. A column that does not converge raises ConvergenceError, never a silent answer.
+#include <cstddef>
 #include <string>
 #include <vector>
 
@@ -53,6 +63,13 @@ struct TimeMarchingSettings {
   double surface_heat_capacity_j_m2_k = 4.2e6;    // the ground while marching (about 1 m of water)
 };
 
+// How Newton's method differences the Jacobian (see the comment at the top of this file).
+enum class JacobianMethod {
+  full_differences,    // one radiative call per layer plus one for the surface: N + 1 calls
+  grouped_differences  // layers j = g (mod 2b+2) perturbed together (Curtis, Powell & Reid 1974):
+                       // 2b + 3 calls, exact within the band |i - j| <= b, the rest approximated
+};
+
 struct EquilibriumSettings {
   ConvectionSettings convection;                  // kind none: pure radiative equilibrium
   SurfaceTreatment surface = SurfaceTreatment::energy_balance;
@@ -61,6 +78,9 @@ struct EquilibriumSettings {
   double flux_tolerance_w_m2 = 0.01;              // |TOA net flux| and |F_region|
   int max_newton_iterations = 40;                 // Newton steps
   double jacobian_step_k = 1e-3;                  // forward-difference perturbation
+  JacobianMethod jacobian = JacobianMethod::grouped_differences;
+  std::size_t jacobian_half_bandwidth = 2;        // b of grouped_differences: layers each side of
+                                                  // the diagonal differenced exactly
   bool broyden_update = true;                     // rank-one updates instead of a new Jacobian each step
   double max_step_k = 30.0;                       // largest temperature change of one Newton step
   bool time_marching_fallback = true;

@@ -47,4 +47,19 @@ using NetHeating = std::function<void(const atmosphere::Column& column, Radiatio
 [[nodiscard]] NetHeating band_net_heating(const spectral::BandSet& longwave_set, const spectral::BandSet& shortwave_set,
                                           const solvers::AngularQuadrature& angles, double solar_constant_w_m2);
 
+// The radiation of a band set with only the flagged longwave bands absorbing (inactive bands made
+// transparent: their gas and continuum absorption is zeroed; see spectral::with_active_bands).
+// One flag per longwave band.
+using RadiationWithBands = std::function<NetHeating(const std::vector<bool>& active_longwave_bands)>;
+
+// band_net_heating of spectral::with_active_bands(longwave_set, flags) and shortwave_set; the sets
+// are copied once and shared read-only by all copies of the returned function. Every call builds new
+// optics tables (a few milliseconds for the default sets). Throws InputError (item
+// "solar_constant" or the angles) for bad arguments here, and from each call what with_active_bands
+// and band_net_heating throw.
+[[nodiscard]] RadiationWithBands band_net_heating_with_bands(const spectral::BandSet& longwave_set,
+                                                             const spectral::BandSet& shortwave_set,
+                                                             const solvers::AngularQuadrature& angles,
+                                                             double solar_constant_w_m2);
+
 } // namespace bandstack::climate

@@ -3,6 +3,7 @@
 #include <filesystem>
 #include <span>
 #include <string>
+#include <vector>
 
 #include "bandstack/batch/column_result.hpp"
 
@@ -16,6 +17,8 @@ struct RunInfo {
   std::string command_line;     // what was run, for the history attribute
   std::string longwave_method;  // human-readable description of optics and angular quadrature
   std::string shortwave_method; // the same for the shortwave ("none" when not computed)
+  std::vector<std::string> experiment_names; // one per experiment result of every column
+  std::string equilibrium_method; // description of the equilibrium settings ("" without equilibrium)
 };
 
 // Writes all columns (they must share one level count) to `path` atomically: the file appears only

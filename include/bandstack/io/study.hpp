@@ -7,6 +7,8 @@
 #include <vector>
 
 #include "bandstack/atmosphere/grid.hpp"
+#include "bandstack/climate/equilibrium.hpp"
+#include "bandstack/climate/perturbation.hpp"
 #include "bandstack/io/demo_study.hpp"
 #include "bandstack/atmosphere/profiles.hpp"
 #include "bandstack/solvers/grey.hpp"
@@ -60,6 +62,12 @@ struct ShortwaveSettings {
   double solar_constant_w_m2 = 1361.0;      // total solar irradiance at 1 au (Kopp & Lean 2011)
 };
 
+// [attribution]: each gas's (and, with bands, each longwave band's) share of the greenhouse effect.
+struct AttributionSpec {
+  bool enabled = false; // the table is present
+  bool bands = false;   // also by longwave band; needs the longwave method "bands"
+};
+
 struct Study {
   std::string title;
   std::string source_file;                  // path the study was read from ("" for built-in)
@@ -69,6 +77,12 @@ struct Study {
   LongwaveSettings longwave;
   ShortwaveSettings shortwave;
   std::filesystem::path output_file;        // absolute, or relative to the working directory
+  // [equilibrium]: every column is first driven to equilibrium (its profile is the first guess).
+  // With water at fixed relative humidity, each column's surface_relative_humidity and
+  // stratospheric_h2o_ppmv set the humidity (climate::WaterSettings).
+  std::optional<climate::EquilibriumSettings> equilibrium;
+  std::vector<climate::Perturbation> experiments;  // [[experiments]], run on every column's base state
+  AttributionSpec attribution;
 };
 
 // Parses a study from TOML text. file_name is used in messages and to resolve a relative output

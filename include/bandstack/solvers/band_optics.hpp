@@ -1,6 +1,7 @@
 #pragma once
 // Band optics: the optical depth of every layer and g-point of a column from a band set's
-// absorption tables, and the Planck source of every g-point at the levels and the surface.
+// absorption tables, and the Planck source of every g-point at the levels, the layers and the
+// surface.
 //
 // Optical depth of layer i at g-point g (absorber units in spectral/absorber.hpp):
 //   tau_g,i = sum over absorbers a of kappa_a,g(p_i, T_i) * m_a,i      (x e_h2o,i for the self-continuum)
@@ -23,7 +24,7 @@
 //  * above the highest reference pressure, or at a layer temperature outside the reference
 //    temperatures: InputError naming the layer and the table's range.
 //
-// Planck source of g-point g in band b at temperature T (levels and surface), W m-2 sr-1:
+// Planck source of g-point g in band b at temperature T (levels, layers and surface), W m-2 sr-1:
 //   B_g(T) = B_b(T) * f_g(T),
 // B_b the band integral of the Planck function over the band's edges, f_g the set's Planck fraction
 // interpolated linearly in T between the set's Planck temperatures (InputError outside them). B_b
@@ -78,6 +79,7 @@ struct BandOptics {
   std::size_t gpoint_count = 0;        // n_g
   std::vector<double> optical_depth;   // [i * n_g + g], N x n_g, vertical
   std::vector<double> source_level;    // [k * n_g + g], (N+1) x n_g, W m-2 sr-1
+  std::vector<double> source_layer;    // [i * n_g + g], N x n_g, W m-2 sr-1 at column.temperature_layer_k
   std::vector<double> source_surface;  // [g], W m-2 sr-1 at column.surface_temperature_k
 };
 
@@ -94,7 +96,8 @@ struct BandOpticsWorkspace {
 
 // Optics of `column` from `tables`, written to `out` (resized; no allocation once grown). Validates
 // the column. Throws InputError for a layer state or temperature outside the tables (see above),
-// naming the column level.
+// including a level, layer or surface temperature outside the Planck temperatures, naming the
+// column level or layer.
 void compute_band_optics(const atmosphere::Column& column, const BandOpticsTables& tables, BandOptics& out,
                          BandOpticsWorkspace& workspace);
 

@@ -32,9 +32,9 @@ struct GreyOptics {
 [[nodiscard]] double grey_source_w_m2_sr(double t_k) noexcept;
 
 // Grey longwave fluxes and heating rates of a column. The source is sigma T^4 / pi at the levels
-// (column.temperature_level_k), varying linearly in optical depth inside each layer, and
-// sigma T_s^4 / pi at the surface (column.surface_temperature_k) with column.surface_emissivity.
-// Layer temperatures are not used. Throws InputError for an invalid column, optics or angles.
+// (column.temperature_level_k) and the layers (column.temperature_layer_k), combined inside each
+// layer as longwave.hpp describes, and sigma T_s^4 / pi at the surface (column.surface_temperature_k)
+// with column.surface_emissivity. Throws InputError for an invalid column, optics or angles.
 [[nodiscard]] LongwaveResult solve_grey_longwave(const atmosphere::Column& column, const GreyOptics& optics,
                                                  const AngularQuadrature& angles);
 

@@ -1,13 +1,13 @@
 #pragma once
 // Line-resolved longwave reference: the equations of the band solver (longwave.hpp: no scattering,
-// Planck source linear in optical depth inside each layer, angular quadrature, Lambertian surface)
+// layer and exit-level Planck sources, angular quadrature, Lambertian surface)
 // solved for every interval of a fine wavenumber grid, with absorption straight from an absorber
 // source. It is the yardstick for band sets, not a different physics.
 //
 // Per fine-grid interval q of width d_nu centred on nu_q:
 //   tau_q,i  = sum over absorbers of kappa_a(nu_q; p_i, T_i) * m_a,i   (x e_h2o,i for the
 //              self-continuum), with the layer state and amounts of band_optics.hpp;
-//   source   = B_nu(nu_q, T) * d_nu at the levels and the surface (midpoint rule: relative error
+//   source   = B_nu(nu_q, T) * d_nu at the levels, layers and surface (midpoint rule: relative error
 //              about (c2 d_nu / T)^2 / 24 per interval, 1e-10 at 0.01 cm-1 and 1e-6 at 1 cm-1 for
 //              T ~ 250 K; c2 = 1.4388 cm K).
 // Fluxes of an interval count towards the band holding its midpoint. Wavenumbers outside the grid
@@ -17,7 +17,7 @@
 // (gauss_quadrature(4)); any valid quadrature is accepted so that band and reference solvers can be
 // compared with identical angles in tests.
 //
-// Cost: about (layers x absorbers) absorber evaluations plus (levels) Planck evaluations and
+// Cost: about (layers x absorbers) absorber evaluations plus (levels + layers) Planck evaluations and
 // (layers x directions) kernel steps per fine-grid point; see benchmarks/band_longwave_bench.cpp.
 // The grid is processed in chunks of 1024 points in fixed order, so memory stays small
 // and the result is deterministic.

@@ -64,4 +64,11 @@ struct BandSet {
 // InputError naming `file` and the variable.
 void validate(const BandSet& set, const std::string& file = "");
 
+// A copy of `set` in which only the bands flagged in `active` (one flag per band) absorb: every
+// absorber's coefficient (gases and continuum) is zeroed at the g-points of inactive bands, so those
+// bands become transparent; Planck fractions, solar weights and Rayleigh scattering are kept.
+// Used to remove bands in experiments and for band attribution. Throws InputError (item
+// "active_bands") if active.size() != band_count().
+[[nodiscard]] BandSet with_active_bands(const BandSet& set, const std::vector<bool>& active);
+
 } // namespace bandstack::spectral
