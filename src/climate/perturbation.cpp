@@ -85,7 +85,12 @@ void apply_perturbation(const Perturbation& p, std::size_t tropopause_level, atm
   }
   column.sun.distance_factor *= p.insolation_scale;
   if (p.surface_albedo) column.surface_albedo = *p.surface_albedo;
-  if (p.stratospheric_h2o_mole_fraction) {
+  if (p.stratospheric_h2o_mole_fraction && relative_humidity) {
+    // Where the equilibrium's own water rule puts the stratosphere (above the cold point), so that
+    // the forcing and the new equilibrium see the same change.
+    water.stratospheric_mole_fraction = *p.stratospheric_h2o_mole_fraction;
+    update_water(column, water);
+  } else if (p.stratospheric_h2o_mole_fraction) {
     std::vector<double>& h2o = column.gas(Gas::h2o);
     h2o.resize(n, 0.0);
     for (std::size_t i = 0; i < tropopause_level; ++i)

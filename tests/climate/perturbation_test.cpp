@@ -66,6 +66,27 @@ TEST(Perturbation, SunAlbedoAndStratosphericWater) {
   EXPECT_EQ(water.stratospheric_mole_fraction, 8e-6);
 }
 
+// With water at fixed relative humidity the stratosphere is where the equilibrium's water rule puts
+// it (above the cold point), so that forcing and the new equilibrium see the same change
+// (consistency with climate::update_water, not a physics value).
+TEST(Perturbation, StratosphericWaterAtFixedRelativeHumidityFollowsTheColdPoint) {
+  cl::WaterSettings water;
+  water.treatment = cl::WaterTreatment::fixed_relative_humidity;
+  at::Column c = column();
+  c.temperature_layer_k = {230.0, 210.0, 200.0, 230.0, 260.0, 285.0}; // cold point: layer 2
+  cl::Perturbation p;
+  p.name = "drier";
+  p.stratospheric_h2o_mole_fraction = 2e-6;
+  cl::apply_perturbation(p, 4, c, water); // a tropopause level below the cold point
+  EXPECT_EQ(water.stratospheric_mole_fraction, 2e-6);
+  at::Column expected = c;
+  cl::update_water(expected, water);
+  EXPECT_EQ(c.gas(Gas::h2o), expected.gas(Gas::h2o));
+  EXPECT_EQ(c.gas(Gas::h2o)[0], 2e-6);
+  EXPECT_EQ(c.gas(Gas::h2o)[1], 2e-6);
+  EXPECT_GT(c.gas(Gas::h2o)[3], 2e-6); // below the cold point: from the relative humidity
+}
+
 TEST(Perturbation, WaterAtFixedRelativeHumidity) {
   cl::WaterSettings water;
   water.treatment = cl::WaterTreatment::fixed_relative_humidity;

@@ -52,8 +52,10 @@ void validate(const Perturbation& perturbation, const WaterSettings& water);
 //   is scaled (or zeroed) alike, so that the re-evaluated stratosphere and the lower bound it sets
 //   agree with the changed column.
 // - insolation_scale multiplies column.sun.distance_factor.
-// - stratospheric_h2o_mole_fraction: the h2o mole fraction of the layers above the tropopause
-//   (i < tropopause_level) is set to it, and water.stratospheric_mole_fraction too.
+// - stratospheric_h2o_mole_fraction: water.stratospheric_mole_fraction takes the new value; with water
+//   at fixed relative humidity the column's water is then re-evaluated by update_water (the new value
+//   above the cold point, as the equilibrium will have it); with fixed mixing ratio the h2o mole
+//   fraction of the layers above the tropopause (i < tropopause_level) is set to it.
 // Calls validate first.
 void apply_perturbation(const Perturbation& perturbation, std::size_t tropopause_level, atmosphere::Column& column,
                         WaterSettings& water);
