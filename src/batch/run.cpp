@@ -8,6 +8,7 @@
 #include "bandstack/core/error.hpp"
 #include "bandstack/io/atomic_output.hpp"
 #include "bandstack/io/result_writer.hpp"
+#include "bandstack/io/sweep.hpp"
 #include "batch/climate_setup.hpp"
 #include "batch/longwave_setup.hpp"
 #include "batch/shortwave_setup.hpp"
@@ -25,7 +26,10 @@ atmosphere::SunGeometry sun_geometry(const io::SunSpec& sun) {
   return {0.5, 1.0, 0.5};
 }
 
-std::vector<atmosphere::Column> build_columns(const io::Study& study) {
+namespace {
+
+// The columns of a study without sweeps.
+std::vector<atmosphere::Column> build_flat_columns(const io::Study& study) {
   std::vector<atmosphere::Column> columns;
   columns.reserve(study.columns.size());
   for (std::size_t i = 0; i < study.columns.size(); ++i) {
@@ -40,6 +44,12 @@ std::vector<atmosphere::Column> build_columns(const io::Study& study) {
     }
   }
   return columns;
+}
+
+} // namespace
+
+std::vector<atmosphere::Column> build_columns(const io::Study& study) {
+  return build_flat_columns(io::expand_sweeps(study).study);
 }
 
 namespace {
@@ -106,7 +116,8 @@ std::vector<atmosphere::Column> check_study(const io::Study& study) {
 
 std::vector<ColumnResult> compute_columns(const io::Study& study, const std::vector<atmosphere::Column>& columns,
                                           std::size_t threads) {
-  return compute_with(study, prepare_longwave(study), prepare_shortwave(study), columns, threads);
+  const io::Study flat = io::expand_sweeps(study).study;
+  return compute_with(flat, prepare_longwave(flat), prepare_shortwave(flat), columns, threads);
 }
 
 std::filesystem::path output_path(const io::Study& study, const RunOptions& options) {
@@ -117,10 +128,12 @@ std::filesystem::path output_path(const io::Study& study, const RunOptions& opti
 RunOutcome run_study(const io::Study& study, const RunOptions& options) {
   const std::filesystem::path path = output_path(study, options);
   io::check_output_folder(path); // fail before the work, not after
-  const std::vector<atmosphere::Column> columns = build_columns(study);
-  const LongwaveSetup setup = prepare_longwave(study);
-  const ShortwaveSetup sw_setup = prepare_shortwave(study);
-  const std::vector<ColumnResult> results = compute_with(study, setup, sw_setup, columns, options.threads);
+  const io::ExpandedStudy expanded = io::expand_sweeps(study);
+  const io::Study& flat = expanded.study;
+  const std::vector<atmosphere::Column> columns = build_flat_columns(flat);
+  const LongwaveSetup setup = prepare_longwave(flat);
+  const ShortwaveSetup sw_setup = prepare_shortwave(flat);
+  const std::vector<ColumnResult> results = compute_with(flat, setup, sw_setup, columns, options.threads);
   io::RunInfo info;
   info.title = study.title;
   info.study_file = study.source_file;
@@ -130,7 +143,7 @@ RunOutcome run_study(const io::Study& study, const RunOptions& options) {
   info.shortwave_method = sw_setup.description;
   info.equilibrium_method = describe_equilibrium(study);
   for (const climate::Perturbation& p : study.experiments) info.experiment_names.push_back(p.name);
-  io::write_result_file(path, results, info);
+  io::write_result_file(path, results, info, expanded.axes);
   return RunOutcome{path, results, info.experiment_names};
 }
 

@@ -20,13 +20,13 @@ constexpr double missing = std::numeric_limits<double>::quiet_NaN();
 
 // A double variable whose missing values are NaN (the CF _FillValue), with extra coordinates.
 NcVar add_with_fill(NcFile& file, const std::string& name, const std::vector<NcDim>& dims, const Attributes& a,
-                    const char* coordinates) {
+                    const std::string& coordinates) {
   NcVar var = file.addVar(name, netCDF::ncDouble, dims);
   var.setFill(true, missing);
   var.putAtt("units", a.units);
   var.putAtt("long_name", a.long_name);
   if (a.standard_name) var.putAtt("standard_name", a.standard_name);
-  var.putAtt("coordinates", coordinates);
+  if (!coordinates.empty()) var.putAtt("coordinates", coordinates);
   return var;
 }
 
@@ -40,7 +40,10 @@ void put_table(NcVar var, std::span<const R> results, std::size_t items,
   var.putVar(data.data());
 }
 
-const char* experiment_coordinates = "column_name experiment_name";
+// The lead's coordinates plus one more.
+std::string with_coordinate(const Lead& lead, const std::string& name) {
+  return lead.coordinates.empty() ? name : lead.coordinates + " " + name;
+}
 
 } // namespace
 
@@ -59,26 +62,26 @@ NcDim write_names(NcFile& file, const std::string& dim, const std::string& var_n
   return items;
 }
 
-void write_equilibrium(NcFile& file, std::span<const R> results, const NcDim& column, const NcDim& layer) {
+void write_equilibrium(NcFile& file, std::span<const R> results, const Lead& lead, const NcDim& layer) {
   if (!results.front().equilibrium) return;
-  const std::vector<NcDim> scalar{column};
-  put_per_column(add_variable(file, "equilibrium_newton_iterations", scalar, {"1", "Newton iterations taken to reach equilibrium", nullptr}),
+  const std::vector<NcDim> scalar = lead.dims;
+  put_per_column(add_variable(file, "equilibrium_newton_iterations", scalar, {"1", "Newton iterations taken to reach equilibrium", nullptr}, lead.coordinates),
                  results, [](const R& r) { return static_cast<double>(r.equilibrium->newton_iterations); });
-  put_per_column(add_variable(file, "equilibrium_time_steps", scalar, {"1", "time-marching steps taken (0 when Newton's method converged)", nullptr}),
+  put_per_column(add_variable(file, "equilibrium_time_steps", scalar, {"1", "time-marching steps taken (0 when Newton's method converged)", nullptr}, lead.coordinates),
                  results, [](const R& r) { return static_cast<double>(r.equilibrium->time_steps); });
-  put_per_column(add_variable(file, "equilibrium_radiative_calls", scalar, {"1", "radiative evaluations of the column used to reach equilibrium", nullptr}),
+  put_per_column(add_variable(file, "equilibrium_radiative_calls", scalar, {"1", "radiative evaluations of the column used to reach equilibrium", nullptr}, lead.coordinates),
                  results, [](const R& r) { return static_cast<double>(r.equilibrium->radiative_calls); });
-  put_per_column(add_variable(file, "equilibrium_max_heating_residual", scalar, {"K day-1", "largest absolute radiative heating rate left in a radiative layer", nullptr}),
+  put_per_column(add_variable(file, "equilibrium_max_heating_residual", scalar, {"K day-1", "largest absolute radiative heating rate left in a radiative layer", nullptr}, lead.coordinates),
                  results, [](const R& r) { return r.equilibrium->max_radiative_heating_k_day; });
-  put_per_column(add_variable(file, "equilibrium_toa_net_residual", scalar, {"W m-2", "net downward flux left at the top of the atmosphere", nullptr}),
+  put_per_column(add_variable(file, "equilibrium_toa_net_residual", scalar, {"W m-2", "net downward flux left at the top of the atmosphere", nullptr}, lead.coordinates),
                  results, [](const R& r) { return r.equilibrium->toa_net_w_m2; });
-  put_per_column(add_variable(file, "equilibrium_convective_region_residual", scalar, {"W m-2", "net radiative flux left into the convective region and the ground", nullptr}),
+  put_per_column(add_variable(file, "equilibrium_convective_region_residual", scalar, {"W m-2", "net radiative flux left into the convective region and the ground", nullptr}, lead.coordinates),
                  results, [](const R& r) { return r.equilibrium->region_net_w_m2; });
-  put_per_column(add_variable(file, "convective_top_pressure", scalar, {"Pa", "pressure at the top of the convective region (the surface pressure when there is none)", nullptr}),
+  put_per_column(add_variable(file, "convective_top_pressure", scalar, {"Pa", "pressure at the top of the convective region (the surface pressure when there is none)", nullptr}, lead.coordinates),
                  results, [](const R& r) { return r.equilibrium->convective_top_pressure_pa(); });
-  NcVar flag = file.addVar("convective_layer", netCDF::ncByte, {column, layer});
+  NcVar flag = file.addVar("convective_layer", netCDF::ncByte, lead.with({layer}));
   flag.putAtt("long_name", "1 where the layer belongs to the convective region of the equilibrium, else 0");
-  flag.putAtt("coordinates", "column_name");
+  if (!lead.coordinates.empty()) flag.putAtt("coordinates", lead.coordinates);
   std::vector<signed char> data;
   for (const R& r : results)
     for (bool b : r.equilibrium->convective) data.push_back(b ? 1 : 0);
@@ -86,21 +89,22 @@ void write_equilibrium(NcFile& file, std::span<const R> results, const NcDim& co
 }
 
 void write_experiments(NcFile& file, std::span<const R> results, const std::vector<std::string>& experiment_names,
-                       const NcDim& column, const NcDim& layer) {
+                       const Lead& lead, const NcDim& layer) {
   if (experiment_names.empty()) return;
   const std::size_t n_exp = experiment_names.size();
   for (const R& r : results)
     if (r.experiments.size() != n_exp) throw InternalError("every column needs one result per experiment");
   const NcDim experiment = write_names(file, "experiment", "experiment_name", experiment_names, "experiment label from the study");
-  const std::vector<NcDim> dims{column, experiment};
+  const std::vector<NcDim> dims = lead.with({experiment});
+  const std::string coordinates = with_coordinate(lead, "experiment_name");
   using E = climate::ExperimentResult;
   const auto put = [&](const std::string& name, const Attributes& a, const std::function<double(const E&)>& get) {
-    put_table(add_with_fill(file, name, dims, a, experiment_coordinates), results, n_exp,
+    put_table(add_with_fill(file, name, dims, a, coordinates), results, n_exp,
               [&](const R& r, std::size_t e) { return get(r.experiments[e]); });
   };
   put_table(add_with_fill(file, "tropopause_pressure", dims,
                           {"Pa", "pressure at the tropopause level used for the forcing and the feedback split", "tropopause_air_pressure"},
-                          experiment_coordinates),
+                          coordinates),
             results, n_exp, [](const R& r, std::size_t e) { return r.column.pressure_level_pa[r.experiments[e].tropopause_level]; });
   put("forcing_toa_instantaneous", {"W m-2", "instantaneous radiative forcing at the top of the atmosphere (change of net downward flux, temperatures fixed)", nullptr},
       [](const E& e) { return e.forcing.toa_instantaneous_w_m2; });
@@ -111,9 +115,9 @@ void write_experiments(NcFile& file, std::span<const R> results, const std::vect
   put("forcing_adjusted_toa", {"W m-2", "stratosphere-adjusted radiative forcing at the top of the atmosphere (equals forcing_adjusted once the stratosphere has adjusted)", nullptr},
       [](const E& e) { return e.forcing.adjusted_toa_w_m2; });
   {
-    NcVar var = add_with_fill(file, "temperature_layer_adjusted", {column, experiment, layer},
+    NcVar var = add_with_fill(file, "temperature_layer_adjusted", lead.with({experiment, layer}),
                               {"K", "layer temperature with the stratosphere adjusted to the perturbation (troposphere unchanged)", "air_temperature"},
-                              experiment_coordinates);
+                              coordinates);
     std::vector<double> data;
     for (const R& r : results)
       for (const E& e : r.experiments) data.insert(data.end(), e.forcing.adjusted_temperature_layer_k.begin(), e.forcing.adjusted_temperature_layer_k.end());
@@ -143,8 +147,8 @@ void write_experiments(NcFile& file, std::span<const R> results, const std::vect
   put("experiment_radiative_calls", {"1", "radiative evaluations used for the perturbed equilibrium", nullptr},
       [](const E& e) { return e.equilibrium ? static_cast<double>(e.equilibrium->radiative_calls) : missing; });
   {
-    NcVar var = add_with_fill(file, "temperature_layer_perturbed", {column, experiment, layer},
-                              {"K", "layer temperature of the perturbed equilibrium", "air_temperature"}, experiment_coordinates);
+    NcVar var = add_with_fill(file, "temperature_layer_perturbed", lead.with({experiment, layer}),
+                              {"K", "layer temperature of the perturbed equilibrium", "air_temperature"}, coordinates);
     std::vector<double> data;
     for (const R& r : results)
       for (const E& e : r.experiments) {
@@ -155,16 +159,16 @@ void write_experiments(NcFile& file, std::span<const R> results, const std::vect
   }
 }
 
-void write_attribution(NcFile& file, std::span<const R> results, const NcDim& column) {
+void write_attribution(NcFile& file, std::span<const R> results, const Lead& lead) {
   if (!results.front().attribution) return;
   std::vector<std::string> names;
   for (Gas g : all_gases) names.emplace_back(gas_name(g));
   const NcDim gas = write_names(file, "gas", "gas_name", names, "radiatively active gas (h2o includes its continuum)");
-  const std::vector<NcDim> scalar{column};
-  put_per_column(add_variable(file, "greenhouse_effect", scalar, {"W m-2", "surface emission sigma Ts^4 minus the outgoing longwave flux", nullptr}),
+  const std::vector<NcDim> scalar = lead.dims;
+  put_per_column(add_variable(file, "greenhouse_effect", scalar, {"W m-2", "surface emission sigma Ts^4 minus the outgoing longwave flux", nullptr}, lead.coordinates),
                  results, [](const R& r) { return r.attribution->greenhouse_effect_w_m2; });
   const auto put_gases = [&](const std::string& name, const char* long_name, bool removal) {
-    put_table(add_with_fill(file, name, {column, gas}, {"W m-2", long_name, nullptr}, "column_name gas_name"), results, gas_count,
+    put_table(add_with_fill(file, name, lead.with({gas}), {"W m-2", long_name, nullptr}, with_coordinate(lead, "gas_name")), results, gas_count,
               [removal](const R& r, std::size_t g) {
                 return removal ? r.attribution->gas_removal_w_m2[g] : r.attribution->gas_addition_w_m2[g];
               });
@@ -176,7 +180,7 @@ void write_attribution(NcFile& file, std::span<const R> results, const NcDim& co
   const NcDim band = file.getDim("band_lw");
   if (band.isNull() || band.getSize() != n_band) throw InternalError("band attribution needs the band_lw dimension");
   const auto put_bands = [&](const std::string& name, const char* long_name, bool removal) {
-    put_table(add_with_fill(file, name, {column, band}, {"W m-2", long_name, nullptr}, "column_name"), results, n_band,
+    put_table(add_with_fill(file, name, lead.with({band}), {"W m-2", long_name, nullptr}, lead.coordinates), results, n_band,
               [removal](const R& r, std::size_t b) {
                 return removal ? r.attribution->band_removal_w_m2[b] : r.attribution->band_addition_w_m2[b];
               });

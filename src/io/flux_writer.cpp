@@ -30,7 +30,7 @@ template <class Result> BandFields band_fields(const Result& r) {
 // A CF coordinate `band_<kind>` (band centre, cm-1) with bounds, and <kind>_{flux_up,flux_down,
 // heating_rate}_by_band. All columns must share the bands.
 void write_bands(NcFile& file, std::span<const R> results, const std::string& kind, const char* kind_words,
-                 const std::function<BandFields(const R&)>& fields, const NcDim& column, const NcDim& level,
+                 const std::function<BandFields(const R&)>& fields, const Lead& lead, const NcDim& level,
                  const NcDim& layer) {
   const BandFields first = fields(results.front());
   const std::size_t n_band = first.lower->size();
@@ -65,68 +65,68 @@ void write_bands(NcFile& file, std::span<const R> results, const std::string& ki
     heating.insert(heating.end(), f.heating->begin(), f.heating->end());
   }
   const std::string words(kind_words);
-  add_variable(file, kind + "_flux_up_by_band", {column, band, level}, {"W m-2", ("upwelling " + words + " flux in each band").c_str(), nullptr})
+  add_variable(file, kind + "_flux_up_by_band", lead.with({band, level}), {"W m-2", ("upwelling " + words + " flux in each band").c_str(), nullptr}, lead.coordinates)
       .putVar(up.data());
-  add_variable(file, kind + "_flux_down_by_band", {column, band, level}, {"W m-2", ("downwelling " + words + " flux in each band").c_str(), nullptr})
+  add_variable(file, kind + "_flux_down_by_band", lead.with({band, level}), {"W m-2", ("downwelling " + words + " flux in each band").c_str(), nullptr}, lead.coordinates)
       .putVar(down.data());
-  add_variable(file, kind + "_heating_rate_by_band", {column, band, layer},
-               {"K day-1", (words + " radiative heating rate in each band").c_str(), nullptr})
+  add_variable(file, kind + "_heating_rate_by_band", lead.with({band, layer}),
+               {"K day-1", (words + " radiative heating rate in each band").c_str(), nullptr}, lead.coordinates)
       .putVar(heating.data());
 }
 
 } // namespace
 
-void write_longwave(NcFile& file, std::span<const R> results, const NcDim& column, const NcDim& level, const NcDim& layer) {
+void write_longwave(NcFile& file, std::span<const R> results, const Lead& lead, const NcDim& level, const NcDim& layer) {
   const std::size_t n_level = level.getSize(), n_layer = layer.getSize();
-  const std::vector<NcDim> per_level{column, level}, per_layer{column, layer}, scalar{column};
-  put_profile(add_variable(file, "lw_flux_up", per_level, {"W m-2", "upwelling longwave flux", "upwelling_longwave_flux_in_air"}),
+  const std::vector<NcDim> per_level = lead.with({level}), per_layer = lead.with({layer}), scalar = lead.dims;
+  put_profile(add_variable(file, "lw_flux_up", per_level, {"W m-2", "upwelling longwave flux", "upwelling_longwave_flux_in_air"}, lead.coordinates),
               results, n_level, [](const R& r) -> const auto& { return r.longwave.flux_up; });
-  put_profile(add_variable(file, "lw_flux_down", per_level, {"W m-2", "downwelling longwave flux", "downwelling_longwave_flux_in_air"}),
+  put_profile(add_variable(file, "lw_flux_down", per_level, {"W m-2", "downwelling longwave flux", "downwelling_longwave_flux_in_air"}, lead.coordinates),
               results, n_level, [](const R& r) -> const auto& { return r.longwave.flux_down; });
   put_profile(add_variable(file, "lw_heating_rate", per_layer,
-                           {"K day-1", "longwave radiative heating rate", "tendency_of_air_temperature_due_to_longwave_heating"}),
+                           {"K day-1", "longwave radiative heating rate", "tendency_of_air_temperature_due_to_longwave_heating"}, lead.coordinates),
               results, n_layer, [](const R& r) -> const auto& { return r.longwave.heating_rate_k_day; });
   if (results.front().longwave.band_count() > 0)
-    write_bands(file, results, "lw", "longwave", [](const R& r) { return band_fields(r.longwave); }, column, level, layer);
-  put_per_column(add_variable(file, "olr", scalar, {"W m-2", "outgoing longwave radiation at the top of the atmosphere", "toa_outgoing_longwave_flux"}),
+    write_bands(file, results, "lw", "longwave", [](const R& r) { return band_fields(r.longwave); }, lead, level, layer);
+  put_per_column(add_variable(file, "olr", scalar, {"W m-2", "outgoing longwave radiation at the top of the atmosphere", "toa_outgoing_longwave_flux"}, lead.coordinates),
                  results, [](const R& r) { return r.longwave.olr(); });
   put_per_column(add_variable(file, "surface_lw_flux_down", scalar,
-                              {"W m-2", "downwelling longwave flux at the surface", "surface_downwelling_longwave_flux_in_air"}),
+                              {"W m-2", "downwelling longwave flux at the surface", "surface_downwelling_longwave_flux_in_air"}, lead.coordinates),
                  results, [](const R& r) { return r.longwave.surface_down(); });
 }
 
-void write_shortwave(NcFile& file, std::span<const R> results, const NcDim& column, const NcDim& level, const NcDim& layer) {
+void write_shortwave(NcFile& file, std::span<const R> results, const Lead& lead, const NcDim& level, const NcDim& layer) {
   if (!results.front().has_shortwave()) return;
   for (const R& r : results)
     if (!r.has_shortwave()) throw InternalError("every column of one result file needs shortwave results, or none");
   const std::size_t n_level = level.getSize(), n_layer = layer.getSize();
-  const std::vector<NcDim> per_level{column, level}, per_layer{column, layer}, scalar{column};
-  put_profile(add_variable(file, "sw_flux_up", per_level, {"W m-2", "upwelling shortwave flux", "upwelling_shortwave_flux_in_air"}),
+  const std::vector<NcDim> per_level = lead.with({level}), per_layer = lead.with({layer}), scalar = lead.dims;
+  put_profile(add_variable(file, "sw_flux_up", per_level, {"W m-2", "upwelling shortwave flux", "upwelling_shortwave_flux_in_air"}, lead.coordinates),
               results, n_level, [](const R& r) -> const auto& { return r.shortwave.flux_up; });
-  put_profile(add_variable(file, "sw_flux_down", per_level, {"W m-2", "downwelling shortwave flux (direct + diffuse)", "downwelling_shortwave_flux_in_air"}),
+  put_profile(add_variable(file, "sw_flux_down", per_level, {"W m-2", "downwelling shortwave flux (direct + diffuse)", "downwelling_shortwave_flux_in_air"}, lead.coordinates),
               results, n_level, [](const R& r) -> const auto& { return r.shortwave.flux_down; });
-  put_profile(add_variable(file, "sw_flux_down_direct", per_level, {"W m-2", "downwelling direct-beam shortwave flux on a horizontal surface", nullptr}),
+  put_profile(add_variable(file, "sw_flux_down_direct", per_level, {"W m-2", "downwelling direct-beam shortwave flux on a horizontal surface", nullptr}, lead.coordinates),
               results, n_level, [](const R& r) -> const auto& { return r.shortwave.flux_down_direct; });
-  put_profile(add_variable(file, "sw_flux_down_diffuse", per_level, {"W m-2", "downwelling diffuse shortwave flux", nullptr}),
+  put_profile(add_variable(file, "sw_flux_down_diffuse", per_level, {"W m-2", "downwelling diffuse shortwave flux", nullptr}, lead.coordinates),
               results, n_level, [](const R& r) -> const auto& { return r.shortwave.flux_down_diffuse; });
   put_profile(add_variable(file, "sw_heating_rate", per_layer,
-                           {"K day-1", "shortwave radiative heating rate", "tendency_of_air_temperature_due_to_shortwave_heating"}),
+                           {"K day-1", "shortwave radiative heating rate", "tendency_of_air_temperature_due_to_shortwave_heating"}, lead.coordinates),
               results, n_layer, [](const R& r) -> const auto& { return r.shortwave.heating_rate_k_day; });
   if (results.front().shortwave.band_count() > 0)
-    write_bands(file, results, "sw", "shortwave", [](const R& r) { return band_fields(r.shortwave); }, column, level, layer);
-  put_per_column(add_variable(file, "toa_sw_flux_down", scalar, {"W m-2", "incoming solar flux at the top of the atmosphere", "toa_incoming_shortwave_flux"}),
+    write_bands(file, results, "sw", "shortwave", [](const R& r) { return band_fields(r.shortwave); }, lead, level, layer);
+  put_per_column(add_variable(file, "toa_sw_flux_down", scalar, {"W m-2", "incoming solar flux at the top of the atmosphere", "toa_incoming_shortwave_flux"}, lead.coordinates),
                  results, [](const R& r) { return r.shortwave.toa_incoming(); });
-  put_per_column(add_variable(file, "toa_sw_flux_up", scalar, {"W m-2", "reflected solar flux at the top of the atmosphere", "toa_outgoing_shortwave_flux"}),
+  put_per_column(add_variable(file, "toa_sw_flux_up", scalar, {"W m-2", "reflected solar flux at the top of the atmosphere", "toa_outgoing_shortwave_flux"}, lead.coordinates),
                  results, [](const R& r) { return r.shortwave.reflected(); });
-  put_per_column(add_variable(file, "absorbed_solar", scalar, {"W m-2", "solar flux absorbed by atmosphere and surface", nullptr}),
+  put_per_column(add_variable(file, "absorbed_solar", scalar, {"W m-2", "solar flux absorbed by atmosphere and surface", nullptr}, lead.coordinates),
                  results, [](const R& r) { return r.shortwave.absorbed_solar(); });
   put_per_column(add_variable(file, "surface_sw_flux_down", scalar,
-                              {"W m-2", "downwelling shortwave flux at the surface", "surface_downwelling_shortwave_flux_in_air"}),
+                              {"W m-2", "downwelling shortwave flux at the surface", "surface_downwelling_shortwave_flux_in_air"}, lead.coordinates),
                  results, [](const R& r) { return r.shortwave.flux_down.back(); });
   put_per_column(add_variable(file, "toa_net_flux", scalar,
-                              {"W m-2", "net downward radiative flux at the top of the atmosphere (absorbed solar - OLR)", nullptr}),
+                              {"W m-2", "net downward radiative flux at the top of the atmosphere (absorbed solar - OLR)", nullptr}, lead.coordinates),
                  results, [](const R& r) { return r.shortwave.absorbed_solar() - r.longwave.olr(); });
-  put_per_column(add_variable(file, "cos_solar_zenith", scalar, {"1", "cosine of the solar zenith angle used", nullptr}),
+  put_per_column(add_variable(file, "cos_solar_zenith", scalar, {"1", "cosine of the solar zenith angle used", nullptr}, lead.coordinates),
                  results, [](const R& r) { return r.column.sun.cos_zenith; });
 }
 

@@ -8,12 +8,13 @@ using netCDF::NcDim;
 using netCDF::NcFile;
 using netCDF::NcVar;
 
-NcVar add_variable(NcFile& file, const std::string& name, const std::vector<NcDim>& dims, const Attributes& a) {
+NcVar add_variable(NcFile& file, const std::string& name, const std::vector<NcDim>& dims, const Attributes& a,
+                   const std::string& coordinates) {
   NcVar var = file.addVar(name, netCDF::ncDouble, dims);
   var.putAtt("units", a.units);
   var.putAtt("long_name", a.long_name);
   if (a.standard_name) var.putAtt("standard_name", a.standard_name);
-  if (dims.front().getName() == "column") var.putAtt("coordinates", "column_name");
+  if (!coordinates.empty()) var.putAtt("coordinates", coordinates);
   return var;
 }
 

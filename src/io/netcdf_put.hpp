@@ -1,6 +1,7 @@
 #pragma once
 // Private to io: small helpers for writing per-column variables of a result file with netCDF-cxx4.
 #include <functional>
+#include <initializer_list>
 #include <span>
 #include <string>
 #include <vector>
@@ -11,16 +12,29 @@
 
 namespace bandstack::io::detail {
 
+// The leading dimensions every per-column variable starts with (the study's columns and sweep axes,
+// or a profile file's leading dimensions); the results are in row-major order over them.
+struct Lead {
+  std::vector<netCDF::NcDim> dims;
+  std::string coordinates;   // the `coordinates` attribute of per-column variables ("column_name" or "")
+  // dims followed by `extra`.
+  [[nodiscard]] std::vector<netCDF::NcDim> with(std::initializer_list<netCDF::NcDim> extra) const {
+    std::vector<netCDF::NcDim> all = dims;
+    all.insert(all.end(), extra.begin(), extra.end());
+    return all;
+  }
+};
+
 struct Attributes {
   const char* units;
   const char* long_name;
   const char* standard_name; // nullptr where CF has none
 };
 
-// Adds a double variable with units, long_name, standard_name and (on the column dimension) the
-// column_name coordinate.
+// Adds a double variable with units, long_name, standard_name and, when not empty, a
+// `coordinates` attribute.
 netCDF::NcVar add_variable(netCDF::NcFile& file, const std::string& name, const std::vector<netCDF::NcDim>& dims,
-                           const Attributes& attributes);
+                           const Attributes& attributes, const std::string& coordinates = "");
 
 // Writes one value per column.
 void put_per_column(netCDF::NcVar var, std::span<const batch::ColumnResult> results,
@@ -32,9 +46,9 @@ void put_profile(netCDF::NcVar var, std::span<const batch::ColumnResult> results
 
 // The flux variables: longwave (always) and shortwave (when the run computed it), each with its
 // band coordinate and by-band variables when the method is band-resolved.
-void write_longwave(netCDF::NcFile& file, std::span<const batch::ColumnResult> results, const netCDF::NcDim& column,
+void write_longwave(netCDF::NcFile& file, std::span<const batch::ColumnResult> results, const Lead& lead,
                     const netCDF::NcDim& level, const netCDF::NcDim& layer);
-void write_shortwave(netCDF::NcFile& file, std::span<const batch::ColumnResult> results, const netCDF::NcDim& column,
+void write_shortwave(netCDF::NcFile& file, std::span<const batch::ColumnResult> results, const Lead& lead,
                      const netCDF::NcDim& level, const netCDF::NcDim& layer);
 
 } // namespace bandstack::io::detail
@@ -49,11 +63,11 @@ netCDF::NcDim write_names(netCDF::NcFile& file, const std::string& dim, const st
 // The climate variables (docs/output-file.md), each written only when the run produced it:
 // equilibrium diagnostics, experiment results on an `experiment` dimension, greenhouse attribution
 // on a `gas` dimension and the `band_lw` dimension (written before by write_longwave).
-void write_equilibrium(netCDF::NcFile& file, std::span<const batch::ColumnResult> results, const netCDF::NcDim& column,
+void write_equilibrium(netCDF::NcFile& file, std::span<const batch::ColumnResult> results, const Lead& lead,
                        const netCDF::NcDim& layer);
 void write_experiments(netCDF::NcFile& file, std::span<const batch::ColumnResult> results,
-                       const std::vector<std::string>& experiment_names, const netCDF::NcDim& column,
+                       const std::vector<std::string>& experiment_names, const Lead& lead,
                        const netCDF::NcDim& layer);
-void write_attribution(netCDF::NcFile& file, std::span<const batch::ColumnResult> results, const netCDF::NcDim& column);
+void write_attribution(netCDF::NcFile& file, std::span<const batch::ColumnResult> results, const Lead& lead);
 
 } // namespace bandstack::io::detail

@@ -47,39 +47,58 @@ const char* gas_standard_name(Gas g) {
   return nullptr;
 }
 
-void write_contents(NcFile& file, std::span<const batch::ColumnResult> results, const RunInfo& info) {
-  const std::size_t n_columns = results.size();
-  const std::size_t n_layers = results.front().column.layer_count();
-  std::size_t name_length = 1;
-  for (const auto& r : results) name_length = std::max(name_length, r.column.name.size());
+// The leading dimensions with their coordinates.
+detail::Lead write_axes(NcFile& file, std::span<const OutputAxis> axes) {
+  detail::Lead lead;
+  for (const OutputAxis& axis : axes) {
+    const NcDim dim = file.addDim(axis.name, axis.size);
+    lead.dims.push_back(dim);
+    if (!axis.values.empty()) {
+      NcVar coord = file.addVar(axis.name, netCDF::ncDouble, dim);
+      for (const auto& [key, value] : axis.attributes) coord.putAtt(key, value);
+      coord.putVar(axis.values.data());
+    }
+    if (!axis.labels.empty()) {
+      const std::string var_name = axis.name + "_name";
+      std::size_t length = 1;
+      for (const std::string& l : axis.labels) length = std::max(length, l.size());
+      // "name_length" for the columns' labels (the established name), <name>_name_length otherwise.
+      const NcDim chars = file.addDim(axis.name == "column" ? std::string("name_length") : var_name + "_length", length);
+      NcVar names = file.addVar(var_name, netCDF::ncChar, {dim, chars});
+      names.putAtt("long_name", axis.name == "column" ? std::string("column label from the study") : axis.name + " label");
+      std::vector<char> text(axis.size * length, '\0');
+      for (std::size_t i = 0; i < axis.size; ++i)
+        std::copy(axis.labels[i].begin(), axis.labels[i].end(), text.begin() + static_cast<long>(i * length));
+      names.putVar(text.data());
+      lead.coordinates += (lead.coordinates.empty() ? "" : " ") + var_name;
+    }
+  }
+  return lead;
+}
 
-  const NcDim column = file.addDim("column", n_columns);
+void write_contents(NcFile& file, std::span<const batch::ColumnResult> results, const RunInfo& info,
+                    std::span<const OutputAxis> axes) {
+  const std::size_t n_layers = results.front().column.layer_count();
+  const detail::Lead lead = write_axes(file, axes);
   const NcDim level = file.addDim("level", n_layers + 1);
   const NcDim layer = file.addDim("layer", n_layers);
-  const NcDim name_dim = file.addDim("name_length", name_length);
-
-  NcVar names = file.addVar("column_name", netCDF::ncChar, {column, name_dim});
-  names.putAtt("long_name", "column label from the study");
-  std::vector<char> chars(n_columns * name_length, '\0');
-  for (std::size_t c = 0; c < n_columns; ++c)
-    std::copy(results[c].column.name.begin(), results[c].column.name.end(), chars.begin() + static_cast<long>(c * name_length));
-  names.putVar(chars.data());
 
   using R = batch::ColumnResult;
-  const std::vector<NcDim> per_level{column, level};
-  const std::vector<NcDim> per_layer{column, layer};
-  put_profile(add_variable(file, "pressure_level", per_level, {"Pa", "air pressure at layer interfaces (level 0 = top of atmosphere)", "air_pressure"}),
+  const std::vector<NcDim> per_level = lead.with({level});
+  const std::vector<NcDim> per_layer = lead.with({layer});
+  const std::string& coordinates = lead.coordinates;
+  put_profile(add_variable(file, "pressure_level", per_level, {"Pa", "air pressure at layer interfaces (level 0 = top of atmosphere)", "air_pressure"}, coordinates),
               results, n_layers + 1, [](const R& r) -> const auto& { return r.column.pressure_level_pa; });
-  put_profile(add_variable(file, "temperature_level", per_level, {"K", "air temperature at layer interfaces", "air_temperature"}),
+  put_profile(add_variable(file, "temperature_level", per_level, {"K", "air temperature at layer interfaces", "air_temperature"}, coordinates),
               results, n_layers + 1, [](const R& r) -> const auto& { return r.column.temperature_level_k; });
-  put_profile(add_variable(file, "pressure_layer", per_layer, {"Pa", "mean air pressure of the layer", "air_pressure"}),
+  put_profile(add_variable(file, "pressure_layer", per_layer, {"Pa", "mean air pressure of the layer", "air_pressure"}, coordinates),
               results, n_layers, [](const R& r) -> const auto& { return r.column.pressure_layer_pa; });
-  put_profile(add_variable(file, "temperature_layer", per_layer, {"K", "air temperature of the layer", "air_temperature"}),
+  put_profile(add_variable(file, "temperature_layer", per_layer, {"K", "air temperature of the layer", "air_temperature"}, coordinates),
               results, n_layers, [](const R& r) -> const auto& { return r.column.temperature_layer_k; });
   for (Gas g : all_gases) {
     const std::string name = std::string(gas_name(g)) + "_mole_fraction";
     const std::string long_name = std::string(gas_name(g)) + " mole fraction in moist air";
-    put_profile(add_variable(file, name, per_layer, {"mol mol-1", long_name.c_str(), gas_standard_name(g)}), results, n_layers,
+    put_profile(add_variable(file, name, per_layer, {"mol mol-1", long_name.c_str(), gas_standard_name(g)}, coordinates), results, n_layers,
                 [g](const R& r) -> const auto& { return r.column.gas(g); });
   }
   std::vector<std::vector<double>> specific_humidity;
@@ -91,23 +110,27 @@ void write_contents(NcFile& file, std::span<const batch::ColumnResult> results, 
   {
     std::vector<double> flat;
     for (const auto& q : specific_humidity) flat.insert(flat.end(), q.begin(), q.end());
-    add_variable(file, "specific_humidity", per_layer, {"kg kg-1", "mass of water vapour per mass of moist air", "specific_humidity"})
+    add_variable(file, "specific_humidity", per_layer, {"kg kg-1", "mass of water vapour per mass of moist air", "specific_humidity"}, coordinates)
         .putVar(flat.data());
   }
 
-  write_longwave(file, results, column, level, layer);
-  write_shortwave(file, results, column, level, layer);
-  detail::write_equilibrium(file, results, column, layer);
-  detail::write_experiments(file, results, info.experiment_names, column, layer);
-  detail::write_attribution(file, results, column);
+  write_longwave(file, results, lead, level, layer);
+  write_shortwave(file, results, lead, level, layer);
+  detail::write_equilibrium(file, results, lead, layer);
+  detail::write_experiments(file, results, info.experiment_names, lead, layer);
+  detail::write_attribution(file, results, lead);
 
-  const std::vector<NcDim> scalar{column};
-  put_per_column(add_variable(file, "surface_temperature", scalar, {"K", "surface skin temperature", "surface_temperature"}),
+  const std::vector<NcDim> scalar = lead.dims;
+  put_per_column(add_variable(file, "surface_temperature", scalar, {"K", "surface skin temperature", "surface_temperature"}, coordinates),
                  results, [](const R& r) { return r.column.surface_temperature_k; });
-  put_per_column(add_variable(file, "surface_emissivity", scalar, {"1", "broadband longwave emissivity of the surface", nullptr}),
-                 results, [](const R& r) { return r.column.surface_emissivity; });
-  put_per_column(add_variable(file, "surface_albedo", scalar, {"1", "broadband shortwave albedo of the surface", "surface_albedo"}),
-                 results, [](const R& r) { return r.column.surface_albedo; });
+  // A swept surface property is already the coordinate variable of its own dimension.
+  const auto swept = [&](const char* name) { return !file.getVar(name).isNull(); };
+  if (!swept("surface_emissivity"))
+    put_per_column(add_variable(file, "surface_emissivity", scalar, {"1", "broadband longwave emissivity of the surface", nullptr}, coordinates),
+                   results, [](const R& r) { return r.column.surface_emissivity; });
+  if (!swept("surface_albedo"))
+    put_per_column(add_variable(file, "surface_albedo", scalar, {"1", "broadband shortwave albedo of the surface", "surface_albedo"}, coordinates),
+                   results, [](const R& r) { return r.column.surface_albedo; });
 
   file.putAtt("Conventions", "CF-1.8");
   file.putAtt("title", info.title.empty() ? std::string("bandstack results") : info.title);
@@ -124,7 +147,8 @@ void write_contents(NcFile& file, std::span<const batch::ColumnResult> results, 
 
 } // namespace
 
-void write_result_file(const std::filesystem::path& path, std::span<const batch::ColumnResult> results, const RunInfo& info) {
+void write_result_file(const std::filesystem::path& path, std::span<const batch::ColumnResult> results, const RunInfo& info,
+                       std::span<const OutputAxis> axes) {
   if (results.empty()) throw InputError(InputPlace{path.string(), "", {}, {}, {}, {}}, "nothing to write: the run has no columns");
   const std::size_t levels = results.front().column.level_count();
   for (std::size_t c = 0; c < results.size(); ++c)
@@ -132,10 +156,23 @@ void write_result_file(const std::filesystem::path& path, std::span<const batch:
       throw InputError(InputPlace{path.string(), "level", {}, {}, static_cast<long>(c), {}},
                        fmt::format("all columns of one file need the same number of levels ({} here, {} in column 0)",
                                    results[c].column.level_count(), levels));
+  std::vector<OutputAxis> default_axes;
+  if (axes.empty()) {
+    OutputAxis column;
+    column.name = "column";
+    column.size = results.size();
+    for (const auto& r : results) column.labels.push_back(r.column.name);
+    default_axes.push_back(std::move(column));
+    axes = default_axes;
+  }
+  std::size_t points = 1;
+  for (const OutputAxis& a : axes) points *= a.size;
+  if (points != results.size())
+    throw InternalError(fmt::format("the output axes hold {} columns, the run has {}", points, results.size()));
   AtomicOutput out(path);
   try {
     NcFile file(out.temporary_path().string(), NcFile::replace, NcFile::nc4);
-    write_contents(file, results, info);
+    write_contents(file, results, info, axes);
     file.close();
   } catch (const netCDF::exceptions::NcException& e) {
     throw FileError(path.string(), std::string("netCDF error while writing: ") + first_line(e.what()));

@@ -135,7 +135,7 @@ Study parse_study(std::string_view text, const std::string& file_name) {
   }
   TomlReader r(file_name);
   r.reject_unknown_keys(root, "", {"title", "grid", "longwave", "shortwave", "output", "columns", "equilibrium", "experiments",
-                              "attribution"});
+                              "attribution", "sweeps"});
 
   Study study;
   study.source_file = file_name;
@@ -147,6 +147,7 @@ Study parse_study(std::string_view text, const std::string& file_name) {
   detail::read_equilibrium(r, root, study);
   detail::read_experiments(r, root, study);
   detail::read_attribution(r, root, study);
+  detail::read_sweeps(r, root, study);
 
   std::string output_name = "bandstack_result.nc";
   if (const toml::table* t = r.table(root, "", "output")) {

@@ -18,7 +18,8 @@ struct RunOptions {
 // The Sun's geometry a column spec asks for (see io::SunSpec).
 [[nodiscard]] atmosphere::SunGeometry sun_geometry(const io::SunSpec& sun);
 
-// Builds and validates every column of the study (InputError names the column on failure).
+// Builds and validates every column of the study, one per combination of columns and sweep values
+// in row-major order (io::expand_sweeps); InputError names the column on failure.
 [[nodiscard]] std::vector<atmosphere::Column> build_columns(const io::Study& study);
 
 // Everything a run would check before computing: builds and validates every column and loads the
@@ -26,7 +27,7 @@ struct RunOptions {
 // the columns. Used by `bandstack check`.
 [[nodiscard]] std::vector<atmosphere::Column> check_study(const io::Study& study);
 
-// Computes every column. Columns are independent and each result goes to its own slot, so the
+// Computes every column (`columns` from build_columns of the same study). Columns are independent and each result goes to its own slot, so the
 // results are bit-identical for any thread count.
 [[nodiscard]] std::vector<ColumnResult> compute_columns(const io::Study& study,
                                                         const std::vector<atmosphere::Column>& columns,

@@ -6,6 +6,7 @@
 #include <vector>
 
 #include "bandstack/batch/column_result.hpp"
+#include "bandstack/io/sweep.hpp"
 
 namespace bandstack::io {
 
@@ -22,8 +23,12 @@ struct RunInfo {
 };
 
 // Writes all columns (they must share one level count) to `path` atomically: the file appears only
-// when complete. Throws FileError for I/O failures and InputError for inconsistent columns.
+// when complete. `axes` are the leading dimensions of every per-column variable, the results in
+// row-major order over them (the product of their sizes is results.size()); empty: one "column"
+// axis labelled with the columns' names. An axis with labels gets a `<name>_name` text coordinate
+// ("column_name" for the columns), one with values a numeric coordinate variable of its own name.
+// Throws FileError for I/O failures and InputError for inconsistent columns.
 void write_result_file(const std::filesystem::path& path, std::span<const batch::ColumnResult> results,
-                       const RunInfo& info);
+                       const RunInfo& info, std::span<const OutputAxis> axes = {});
 
 } // namespace bandstack::io

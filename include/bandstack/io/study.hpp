@@ -68,12 +68,21 @@ struct AttributionSpec {
   bool bands = false;   // also by longwave band; needs the longwave method "bands"
 };
 
+// [[sweeps]]: one numeric column key over a list of values. Several sweeps are crossed with each
+// other and with the columns: the run computes every column for every combination, and the result
+// file keeps each sweep as a dimension with the values as its coordinate.
+struct SweepAxis {
+  std::string key;              // a numeric [[columns]] key, e.g. "co2_ppmv" (also the dimension name)
+  std::vector<double> values;   // in the key's own units, as the study file gives them
+};
+
 struct Study {
   std::string title;
   std::string source_file;                  // path the study was read from ("" for built-in)
   std::string source_text;                  // full TOML text, stored in the output for provenance
   atmosphere::GridSpec grid;
   std::vector<ColumnSpec> columns;
+  std::vector<SweepAxis> sweeps;            // crossed with columns, in this order (outermost first)
   LongwaveSettings longwave;
   ShortwaveSettings shortwave;
   std::filesystem::path output_file;        // absolute, or relative to the working directory

@@ -1,0 +1,50 @@
+#pragma once
+// Sweeps: the numeric [[columns]] keys a study may vary (docs/study-file.md, [[sweeps]]), and the
+// expansion of a study into one column per combination of columns and sweep values.
+#include <string>
+#include <string_view>
+#include <utility>
+#include <vector>
+
+#include "bandstack/io/study.hpp"
+
+namespace bandstack::io {
+
+struct SweepKey {
+  std::string_view key;        // study-file key, e.g. "co2_ppmv"
+  double lowest, highest;      // allowed range in the key's units (the [[columns]] key's range)
+  std::string_view units;      // UDUNITS string for the output coordinate, e.g. "1e-6" for ppmv
+  std::string_view long_name;  // for the output coordinate
+};
+
+// Every key a sweep may vary, in a fixed order.
+[[nodiscard]] const std::vector<SweepKey>& sweep_keys();
+// The entry for `key`, or nullptr.
+[[nodiscard]] const SweepKey* find_sweep_key(std::string_view key);
+
+// Sets `key` of `spec` to `value` (in the key's study-file units). Setting cos_zenith drops the
+// latitude/day/time keys and the reverse, so that the swept value is the one used.
+// Throws InputError for an unknown key.
+void set_column_value(ColumnSpec& spec, std::string_view key, double value);
+
+// One output dimension of a run: a sweep axis, the study's columns, or a profile file's leading
+// dimension.
+struct OutputAxis {
+  std::string name;                    // the netCDF dimension name
+  std::size_t size = 0;
+  std::vector<double> values;          // numeric coordinate values, or empty
+  std::vector<std::string> labels;     // text labels (written as <name>_name), or empty
+  std::vector<std::pair<std::string, std::string>> attributes; // of the coordinate variable
+};
+
+// The study with its sweeps expanded: columns holds one spec per point of the output axes, in
+// row-major order (the study's columns outermost, then each sweep in study order), and sweeps is
+// empty. Throws InputError (naming the sweep) if a combination is invalid (e.g. latitude_deg swept
+// on a column without day_of_year).
+struct ExpandedStudy {
+  Study study;
+  std::vector<OutputAxis> axes;        // "column" (labels = column names), then one per sweep
+};
+[[nodiscard]] ExpandedStudy expand_sweeps(const Study& study);
+
+} // namespace bandstack::io

@@ -1,0 +1,97 @@
+#include "bandstack/io/sweep.hpp"
+
+#include <fmt/format.h>
+
+#include "bandstack/core/error.hpp"
+#include "bandstack/core/units.hpp"
+
+namespace bandstack::io {
+
+const std::vector<SweepKey>& sweep_keys() {
+  // Ranges as read_column in study.cpp checks them.
+  static const std::vector<SweepKey> keys{
+      {"surface_temperature_k", 150.0, 330.0, "K", "surface temperature of the column"},
+      {"surface_relative_humidity", 0.0, 1.0, "1", "surface relative humidity of the Manabe-Wetherald profile"},
+      {"stratospheric_h2o_ppmv", 0.0, 1e4, "1e-6", "stratospheric water vapour mole fraction"},
+      {"co2_ppmv", 0.0, 1e5, "1e-6", "carbon dioxide mole fraction"},
+      {"ch4_ppmv", 0.0, 1e5, "1e-6", "methane mole fraction"},
+      {"n2o_ppmv", 0.0, 1e5, "1e-6", "nitrous oxide mole fraction"},
+      {"ozone_scale", 0.0, 100.0, "1", "factor on the analytic ozone profile"},
+      {"surface_emissivity", 0.0, 1.0, "1", "broadband longwave emissivity of the surface"},
+      {"surface_albedo", 0.0, 1.0, "1", "broadband shortwave albedo of the surface"},
+      {"cos_zenith", 0.0, 1.0, "1", "cosine of the solar zenith angle"},
+      {"latitude_deg", -90.0, 90.0, "degrees_north", "latitude of the Sun's position calculation"},
+      {"day_of_year", 1.0, 366.0, "1", "day of the year of the Sun's position calculation"},
+      {"local_solar_time_h", 0.0, 24.0, "hour", "local solar time of the Sun's position calculation"},
+  };
+  return keys;
+}
+
+const SweepKey* find_sweep_key(std::string_view key) {
+  for (const SweepKey& k : sweep_keys())
+    if (k.key == key) return &k;
+  return nullptr;
+}
+
+void set_column_value(ColumnSpec& spec, std::string_view key, double value) {
+  atmosphere::ProfileSettings& s = spec.settings;
+  SunSpec& sun = spec.sun;
+  if (key == "surface_temperature_k") s.surface_temperature_k = value;
+  else if (key == "surface_relative_humidity") s.surface_relative_humidity = value;
+  else if (key == "stratospheric_h2o_ppmv") s.stratospheric_h2o_mole_fraction = units::ppmv_to_mole_fraction(value);
+  else if (key == "co2_ppmv") s.co2_mole_fraction = units::ppmv_to_mole_fraction(value);
+  else if (key == "ch4_ppmv") s.ch4_mole_fraction = units::ppmv_to_mole_fraction(value);
+  else if (key == "n2o_ppmv") s.n2o_mole_fraction = units::ppmv_to_mole_fraction(value);
+  else if (key == "ozone_scale") s.ozone_scale = value;
+  else if (key == "surface_emissivity") s.surface_emissivity = value;
+  else if (key == "surface_albedo") s.surface_albedo = value;
+  else if (key == "cos_zenith") sun = SunSpec{value, std::nullopt, std::nullopt, std::nullopt};
+  else if (key == "latitude_deg") { sun.latitude_deg = value; sun.cos_zenith.reset(); }
+  else if (key == "day_of_year") { sun.day_of_year = value; sun.cos_zenith.reset(); }
+  else if (key == "local_solar_time_h") { sun.local_solar_time_h = value; sun.cos_zenith.reset(); }
+  else throw InputError(InputPlace::of("sweeps.key"), fmt::format("\"{}\" cannot be swept", key));
+}
+
+ExpandedStudy expand_sweeps(const Study& study) {
+  ExpandedStudy out;
+  out.study = study;
+  out.study.sweeps.clear();
+  OutputAxis column_axis;
+  column_axis.name = "column";
+  column_axis.size = study.columns.size();
+  for (const ColumnSpec& spec : study.columns) column_axis.labels.push_back(spec.name);
+  out.axes.push_back(std::move(column_axis));
+  std::vector<ColumnSpec> specs = study.columns;
+  for (std::size_t a = 0; a < study.sweeps.size(); ++a) {
+    const SweepAxis& sweep = study.sweeps[a];
+    const SweepKey* info = find_sweep_key(sweep.key);
+    if (!info) throw InputError(InputPlace{study.source_file, fmt::format("sweeps[{}].key", a), {}, {}, {}, {}},
+                                fmt::format("\"{}\" cannot be swept", sweep.key));
+    OutputAxis axis;
+    axis.name = sweep.key;
+    axis.size = sweep.values.size();
+    axis.values = sweep.values;
+    axis.attributes = {{"units", std::string(info->units)}, {"long_name", std::string(info->long_name)}};
+    out.axes.push_back(std::move(axis));
+    std::vector<ColumnSpec> crossed;
+    crossed.reserve(specs.size() * sweep.values.size());
+    for (const ColumnSpec& spec : specs)
+      for (double value : sweep.values) {
+        ColumnSpec copy = spec;
+        set_column_value(copy, sweep.key, value);
+        crossed.push_back(std::move(copy));
+      }
+    specs = std::move(crossed);
+  }
+  for (std::size_t c = 0; c < specs.size(); ++c) {
+    const SunSpec& sun = specs[c].sun;
+    if ((sun.latitude_deg || sun.day_of_year || sun.local_solar_time_h) && !(sun.latitude_deg && sun.day_of_year))
+      throw InputError(InputPlace{study.source_file, "sweeps", {}, {}, static_cast<long>(c), {}},
+                       fmt::format("column \"{}\": the Sun's position needs both latitude_deg and day_of_year (sweep one, "
+                                   "give the other in the column)", specs[c].name));
+  }
+  out.study.columns = std::move(specs);
+  return out;
+}
+
+} // namespace bandstack::io
