@@ -17,7 +17,8 @@ std::vector<std::size_t> jacobian_group(std::size_t g, std::size_t group_count, 
 }
 
 Eigen::MatrixXd assemble_grouped_jacobian(const std::vector<Eigen::VectorXd>& group_response,
-                                          const Eigen::VectorXd& surface_response, std::size_t half_bandwidth) {
+                                          const Eigen::VectorXd& surface_response, std::size_t half_bandwidth,
+                                          const std::vector<double>& far_weight) {
   const auto n = surface_response.size() - 1; // layers
   const auto group_count = static_cast<std::size_t>(group_response.size());
   if (n < 1 || group_count < 1 || group_count > static_cast<std::size_t>(n))
@@ -26,8 +27,16 @@ Eigen::MatrixXd assemble_grouped_jacobian(const std::vector<Eigen::VectorXd>& gr
     if (r.size() != n + 1) throw InternalError("grouped Jacobian: response of the wrong size");
   Eigen::MatrixXd jacobian = Eigen::MatrixXd::Zero(n + 1, n + 1);
   jacobian.col(n) = surface_response;
+  if (!far_weight.empty() && far_weight.size() != static_cast<std::size_t>(n))
+    throw InternalError("grouped Jacobian: far-field weights of the wrong size");
+  std::vector<double> w = far_weight;
+  if (w.empty()) w.assign(static_cast<std::size_t>(n), 1.0);
   std::vector<std::vector<std::size_t>> groups(group_count);
-  for (std::size_t g = 0; g < group_count; ++g) groups[g] = jacobian_group(g, group_count, static_cast<std::size_t>(n));
+  std::vector<double> group_weight(group_count, 0.0);
+  for (std::size_t g = 0; g < group_count; ++g) {
+    groups[g] = jacobian_group(g, group_count, static_cast<std::size_t>(n));
+    for (std::size_t j : groups[g]) group_weight[g] += w[j];
+  }
   const auto band = static_cast<Eigen::Index>(half_bandwidth);
   std::vector<Eigen::Index> nearest(group_count);
   for (Eigen::Index i = 0; i <= n; ++i) {
@@ -41,21 +50,21 @@ Eigen::MatrixXd assemble_grouped_jacobian(const std::vector<Eigen::VectorXd>& gr
         if (std::abs(static_cast<Eigen::Index>(j) - i) < std::abs(best - i)) best = static_cast<Eigen::Index>(j);
       nearest[g] = best;
       if (std::abs(best - i) > band) {
-        background += group_response[g][i] / static_cast<double>(groups[g].size());
+        background += group_response[g][i] / group_weight[g];
         ++far_groups;
       }
     }
     if (far_groups > 0) background /= far_groups;
     for (std::size_t g = 0; g < group_count; ++g) {
       const double response = group_response[g][i];
-      const auto members = static_cast<double>(groups[g].size());
       if (group_count == static_cast<std::size_t>(n)) {
         jacobian(i, nearest[g]) = response; // one layer per group: ordinary differences
       } else if (std::abs(nearest[g] - i) > band) {
-        for (std::size_t j : groups[g]) jacobian(i, static_cast<Eigen::Index>(j)) = response / members;
+        for (std::size_t j : groups[g]) jacobian(i, static_cast<Eigen::Index>(j)) = response * w[j] / group_weight[g];
       } else {
-        for (std::size_t j : groups[g]) jacobian(i, static_cast<Eigen::Index>(j)) = background;
-        jacobian(i, nearest[g]) = response - (members - 1.0) * background;
+        for (std::size_t j : groups[g]) jacobian(i, static_cast<Eigen::Index>(j)) = background * w[j];
+        jacobian(i, nearest[g]) =
+            response - (group_weight[g] - w[static_cast<std::size_t>(nearest[g])]) * background;
       }
     }
   }

@@ -8,10 +8,11 @@
 // for the layers next to layer i and small ones of one sign, changing slowly with j, beyond them.
 // Layer j is put in group j mod G with G = 2b + 2 groups (b = half bandwidth): each layer of the
 // band |i - j| <= b of row i is then the only one of its group in that band, and at least one
-// group has no layer in it. The response of such a group, per layer, measures the row's
-// background; a band entry is its group's response less the background of the group's other
-// layers. Each row keeps its exact sum over the layers of every group; what is lost is how the
-// background varies across the column, which Broyden's updates then correct. (Attributing a
+// group has no layer in it. The response of such a group, per layer (or per unit of a layer
+// weight, such as the square root of its mass), measures the row's background; a band entry is its
+// group's response less the background of the group's other layers. Each row keeps its exact sum
+// over the layers of every group; what is lost is how the background varies across the column
+// beyond the weights, which Broyden's updates then correct. (Attributing a
 // group's whole response to its band layer instead, as for a truly banded matrix, can turn the
 // diagonal's sign: in the upper layers the band and the background nearly cancel.)
 #include <cstddef>
@@ -30,9 +31,13 @@ namespace bandstack::climate::detail {
 // Assembles the (N+1) x (N+1) Jacobian d(H_0 .. H_{N-1}, surface net)/d(T_0 .. T_{N-1}, T_s) from
 // group_response[g] = d(full response)/d(temperature of all layers of group g), N+1 values each,
 // and the exact surface column. Row N (the surface) is placed below layer N-1 for the band test.
+// far_weight (N values > 0, any unit; empty: all 1) shapes the background: row i's entry for a far
+// layer j is c_i far_weight[j] instead of c_i, with c_i measured from the groups with no layer in
+// the band, and a far group's response is shared among its layers in proportion to their weights.
 // With group_count == layer_count the result is the ordinary forward-difference Jacobian.
 [[nodiscard]] Eigen::MatrixXd assemble_grouped_jacobian(const std::vector<Eigen::VectorXd>& group_response,
                                                         const Eigen::VectorXd& surface_response,
-                                                        std::size_t half_bandwidth);
+                                                        std::size_t half_bandwidth,
+                                                        const std::vector<double>& far_weight = {});
 
 } // namespace bandstack::climate::detail

@@ -55,6 +55,31 @@ TEST(GroupedJacobian, ExactForBandPlusRowBackground) {
   }
 }
 
+// With far-field weights w_j the model is a band plus c_i w_j off it: reproduced exactly (by
+// construction), and the group sums of any matrix are still kept.
+TEST(GroupedJacobian, ExactForBandPlusWeightedBackground) {
+  const std::size_t n = 31, b = 2, groups = detail::jacobian_group_count(n, b);
+  std::vector<double> w(n);
+  for (std::size_t j = 0; j < n; ++j) w[j] = std::exp(0.15 * static_cast<double>(j)); // like sqrt(dp), log grid
+  Eigen::MatrixXd j = band_plus_background(n, b);
+  for (Eigen::Index i = 0; i < j.rows(); ++i)
+    for (Eigen::Index k = 0; k + 1 < j.cols(); ++k)
+      if (std::abs(i - k) > static_cast<Eigen::Index>(b)) j(i, k) *= w[static_cast<std::size_t>(k)];
+  const Eigen::MatrixXd a = detail::assemble_grouped_jacobian(responses(j, groups), j.col(j.cols() - 1), b, w);
+  EXPECT_LT((a - j).cwiseAbs().maxCoeff(), 1e-12);
+  // Equal weights cannot describe it.
+  const Eigen::MatrixXd equal = detail::assemble_grouped_jacobian(responses(j, groups), j.col(j.cols() - 1), b);
+  EXPECT_GT((equal - j).cwiseAbs().maxCoeff(), 1e-3);
+  const Eigen::MatrixXd r = Eigen::MatrixXd::Random(j.rows(), j.cols());
+  const std::vector<Eigen::VectorXd> rr = responses(r, groups);
+  const Eigen::MatrixXd ar = detail::assemble_grouped_jacobian(rr, r.col(r.cols() - 1), b, w);
+  for (std::size_t g = 0; g < groups; ++g) {
+    Eigen::VectorXd sum = Eigen::VectorXd::Zero(r.rows());
+    for (std::size_t layer : detail::jacobian_group(g, groups, n)) sum += ar.col(static_cast<Eigen::Index>(layer));
+    EXPECT_LT((sum - rr[g]).cwiseAbs().maxCoeff(), 1e-12) << "group " << g;
+  }
+}
+
 TEST(GroupedJacobian, RowSumsOverEachGroupKept) {
   const std::size_t n = 25, b = 2, groups = detail::jacobian_group_count(n, b);
   Eigen::MatrixXd j = Eigen::MatrixXd::Random(static_cast<Eigen::Index>(n + 1), static_cast<Eigen::Index>(n + 1));

@@ -16,7 +16,8 @@
 // all layer temperatures and the surface temperature, by forward finite differences, then, with
 // broyden_update, corrected after every move by Broyden's rank-one update (no extra call) and
 // differenced afresh only when a step with the updated Jacobian fails to decrease the merit after
-// two halvings; without it, differenced every step. The Newton matrix for the current unknowns
+// two halvings, or (grouped differences) when such a step, not capped, fails to halve it;
+// without it, differenced every step. The Newton matrix for the current unknowns
 // follows from it by the chain rule, so a change of the convective region costs no new Jacobian.
 // Solved by Eigen's dense LU with partial pivoting; each step is capped at max_step_k and shortened
 // by halving until a weighted sum of squared residuals (heating over its tolerance, fluxes over
@@ -27,8 +28,9 @@
 // Jacobian by grouped_differences (the default): layers perturbed in 2b+2 groups (Curtis, Powell &
 // Reid 1974, J. Inst. Math. Appl. 13, 117-119; from memory), 2b+3 radiative calls (7 for the
 // default b = 2) instead of N+1 (61 for 60 layers); band entries exact, the slowly varying far exchange
-// approximated (src/climate/grouped_jacobian.hpp) and then corrected by Broyden's updates. A fresh
-// grouped Jacobian whose step fails is replaced by full differences. Each step also predicts the
+// approximated in proportion to the square root of each layer's mass (src/climate/grouped_jacobian.hpp)
+// and then corrected by Broyden's updates. A convective region that only shrinks costs no radiative
+// call. A fresh grouped Jacobian whose step fails is replaced by full differences. Each step also predicts the
 // convective region: the region is grown over the layers the step would leave unstable and the
 // step solved again for it (no radiative call) before the line search. If this fails, Newton's
 // method starts again from `start` with full differences (N+1 calls) and the region revised only
