@@ -6,10 +6,9 @@
 
 #include "bandstack/atmosphere/sun.hpp"
 #include "bandstack/core/error.hpp"
-#include "bandstack/io/atomic_output.hpp"
-#include "bandstack/io/result_writer.hpp"
 #include "bandstack/io/sweep.hpp"
 #include "batch/climate_setup.hpp"
+#include "batch/column_blocks.hpp"
 #include "batch/longwave_setup.hpp"
 #include "batch/shortwave_setup.hpp"
 
@@ -26,23 +25,33 @@ atmosphere::SunGeometry sun_geometry(const io::SunSpec& sun) {
   return {0.5, 1.0, 0.5};
 }
 
+// Column i of a study without sweeps.
+atmosphere::Column build_column(const io::Study& study, std::size_t i) {
+  const io::ColumnSpec& spec = study.columns[i];
+  try {
+    atmosphere::Column column;
+    if (spec.given_column) {
+      column = *spec.given_column; // from a profile file
+      column.name = spec.name;
+    } else {
+      column = atmosphere::make_column(spec.settings, study.grid, spec.name);
+    }
+    column.sun = sun_geometry(spec.sun);
+    return column;
+  } catch (const InputError& e) {
+    throw InputError(InputPlace{study.source_file, fmt::format("columns[{}] \"{}\"", i, spec.name), {}, {},
+                                static_cast<long>(i), {}},
+                     e.what());
+  }
+}
+
 namespace {
 
 // The columns of a study without sweeps.
 std::vector<atmosphere::Column> build_flat_columns(const io::Study& study) {
   std::vector<atmosphere::Column> columns;
   columns.reserve(study.columns.size());
-  for (std::size_t i = 0; i < study.columns.size(); ++i) {
-    const io::ColumnSpec& spec = study.columns[i];
-    try {
-      columns.push_back(atmosphere::make_column(spec.settings, study.grid, spec.name));
-      columns.back().sun = sun_geometry(spec.sun);
-    } catch (const InputError& e) {
-      throw InputError(InputPlace{study.source_file, fmt::format("columns[{}] \"{}\"", i, spec.name), {}, {},
-                                  static_cast<long>(i), {}},
-                       e.what());
-    }
-  }
+  for (std::size_t i = 0; i < study.columns.size(); ++i) columns.push_back(build_column(study, i));
   return columns;
 }
 
@@ -51,8 +60,6 @@ std::vector<atmosphere::Column> build_flat_columns(const io::Study& study) {
 std::vector<atmosphere::Column> build_columns(const io::Study& study) {
   return build_flat_columns(io::expand_sweeps(study).study);
 }
-
-namespace {
 
 // Per-band surface properties must match the band sets the study uses.
 void check_band_properties(const io::Study& study, const LongwaveSetup& lw, const ShortwaveSetup& sw) {
@@ -71,35 +78,46 @@ void check_band_properties(const io::Study& study, const LongwaveSetup& lw, cons
   }
 }
 
-std::vector<ColumnResult> compute_with(const io::Study& study, const LongwaveSetup& setup, const ShortwaveSetup& sw_setup,
-                                       const std::vector<atmosphere::Column>& columns, std::size_t threads) {
-  check_band_properties(study, setup, sw_setup);
-  const ClimateSetup climate_setup = prepare_climate(study, setup, sw_setup);
-  std::vector<ColumnResult> results(columns.size());
-  auto work = [&] {
-    tbb::parallel_for(std::size_t{0}, columns.size(), [&](std::size_t c) {
-      results[c].column = columns[c];
-      try {
-        compute_climate(climate_setup, c, columns[c], results[c]);
-        const io::ColumnSpec& spec = study.columns[c];
-        results[c].longwave = solve_longwave(study, setup, results[c].column, spec.surface_emissivity_by_band);
-        results[c].shortwave = solve_shortwave(sw_setup, results[c].column, spec.surface_albedo_by_band);
-      } catch (const InputError& e) {
-        throw InputError(InputPlace{study.source_file, fmt::format("columns[{}] \"{}\"", c, columns[c].name), {}, {},
-                                    static_cast<long>(c), {}},
-                         e.what());
-      } catch (const ConvergenceError& e) {
-        throw ConvergenceError(fmt::format("{}: columns[{}] \"{}\": {}", study.source_file.empty() ? "demo" : study.source_file,
-                                           c, columns[c].name, e.what()));
-      }
-    });
-  };
+void compute_one(const io::Study& study, const LongwaveSetup& setup, const ShortwaveSetup& sw_setup,
+                 const ClimateSetup& climate_setup, std::size_t c, const atmosphere::Column& column, ColumnResult& result) {
+  result.column = column;
+  try {
+    compute_climate(climate_setup, c, column, result);
+    const io::ColumnSpec& spec = study.columns[c];
+    result.longwave = solve_longwave(study, setup, result.column, spec.surface_emissivity_by_band);
+    result.shortwave = solve_shortwave(sw_setup, result.column, spec.surface_albedo_by_band);
+  } catch (const InputError& e) {
+    throw InputError(InputPlace{study.source_file, fmt::format("columns[{}] \"{}\"", c, column.name), {}, {},
+                                static_cast<long>(c), {}},
+                     e.what());
+  } catch (const ConvergenceError& e) {
+    throw ConvergenceError(fmt::format("{}: columns[{}] \"{}\": {}", study.source_file.empty() ? "demo" : study.source_file,
+                                       c, column.name, e.what()));
+  }
+}
+
+namespace {
+
+// Runs `work` on `threads` worker threads (0 = all).
+template <class Work> void in_arena(std::size_t threads, const Work& work) {
   if (threads == 0) {
     work();
   } else {
     tbb::task_arena arena(static_cast<int>(threads));
     arena.execute(work);
   }
+}
+
+std::vector<ColumnResult> compute_with(const io::Study& study, const LongwaveSetup& setup, const ShortwaveSetup& sw_setup,
+                                       const std::vector<atmosphere::Column>& columns, std::size_t threads) {
+  check_band_properties(study, setup, sw_setup);
+  const ClimateSetup climate_setup = prepare_climate(study, setup, sw_setup);
+  std::vector<ColumnResult> results(columns.size());
+  in_arena(threads, [&] {
+    tbb::parallel_for(std::size_t{0}, columns.size(), [&](std::size_t c) {
+      compute_one(study, setup, sw_setup, climate_setup, c, columns[c], results[c]);
+    });
+  });
   return results;
 }
 
@@ -125,29 +143,11 @@ std::filesystem::path output_path(const io::Study& study, const RunOptions& opti
   return options.output_directory / study.output_file.filename();
 }
 
-RunOutcome run_study(const io::Study& study, const RunOptions& options) {
-  const std::filesystem::path path = output_path(study, options);
-  io::check_output_folder(path); // fail before the work, not after
-  const io::ExpandedStudy expanded = io::expand_sweeps(study);
-  const io::Study& flat = expanded.study;
-  const std::vector<atmosphere::Column> columns = build_flat_columns(flat);
-  const LongwaveSetup setup = prepare_longwave(flat);
-  const ShortwaveSetup sw_setup = prepare_shortwave(flat);
-  const std::vector<ColumnResult> results = compute_with(flat, setup, sw_setup, columns, options.threads);
-  io::RunInfo info;
-  info.title = study.title;
-  info.study_file = study.source_file;
-  info.study_text = study.source_text;
-  info.command_line = study.source_file.empty() ? "bandstack demo" : "bandstack run " + study.source_file;
-  info.longwave_method = setup.description;
-  info.shortwave_method = sw_setup.description;
-  info.equilibrium_method = describe_equilibrium(study);
-  for (const climate::Perturbation& p : study.experiments) info.experiment_names.push_back(p.name);
-  io::write_result_file(path, results, info, expanded.axes);
-  return RunOutcome{path, results, info.experiment_names};
-}
-
 std::string format_summary(const RunOutcome& outcome) {
+  if (outcome.results.size() != outcome.column_count || outcome.results.empty())
+    return fmt::format("{} columns{}\nwrote {}\n", outcome.column_count,
+                       outcome.resumed_from > 0 ? fmt::format(" ({} of them from the interrupted run)", outcome.resumed_from) : "",
+                       outcome.output_file.string());
   std::string text = fmt::format("{:<28} {:>9} {:>9} {:>9} {:>9} {:>9}   (W m-2; T in K)\n", "column", "T_surf",
                                  "OLR", "LW_down", "ASR", "TOA_net");
   for (const ColumnResult& r : outcome.results) {

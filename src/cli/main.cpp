@@ -4,6 +4,8 @@
 #include <filesystem>
 #include <string>
 
+#include <unistd.h>
+
 #include <CLI/CLI.hpp>
 #include <fmt/format.h>
 
@@ -24,19 +26,36 @@ struct Options {
   std::string band_set_path;
   std::string out_dir;
   std::size_t threads = 0;
+  std::size_t chunk_columns = 256;
+  int deflate = 0;
+  bool restart = false;
   bool quiet = false;
 };
 
 void add_run_options(CLI::App* command, Options& o) {
   command->add_option("--out", o.out_dir, "Folder for the result file (default: as the study says)");
   command->add_option("--threads", o.threads, "Worker threads (default: all cores)")->check(CLI::Range(1, 4096));
+  command->add_option("--deflate", o.deflate, "netCDF deflate level of the result file, 0 (none, default) to 9")->check(CLI::Range(0, 9));
+  command->add_option("--chunk-columns", o.chunk_columns, "Columns computed and written per block (default 256)")
+      ->check(CLI::Range(1, 1000000));
+  command->add_flag("--restart", o.restart, "Start afresh even if an interrupted run of the same study can be resumed");
 }
 
 int run(const bandstack::io::Study& study, const Options& o) {
   bandstack::batch::RunOptions options;
   options.threads = o.threads;
   options.output_directory = o.out_dir;
+  options.chunk_columns = o.chunk_columns;
+  options.deflate_level = o.deflate;
+  options.resume = !o.restart;
+  options.progress = !o.quiet && ::isatty(STDERR_FILENO) == 1;
+  if (!o.quiet) options.note = [](std::string_view text) { std::fprintf(stderr, "bandstack: %.*s\n", static_cast<int>(text.size()), text.data()); };
   const bandstack::batch::RunOutcome outcome = bandstack::batch::run_study(study, options);
+  if (outcome.interrupted_by != 0) {
+    std::fprintf(stderr, "bandstack: interrupted after %zu of %zu columns; run the same command again to resume\n",
+                 outcome.columns_written, outcome.column_count);
+    return 128 + outcome.interrupted_by; // the shell's convention: 130 for SIGINT, 143 for SIGTERM
+  }
   if (!o.quiet) std::fputs(bandstack::batch::format_summary(outcome).c_str(), stdout);
   return 0;
 }
@@ -79,7 +98,7 @@ int dispatch(int argc, char** argv) {
     for (const std::string_view text : {bandstack::io::demo_study_text(), bandstack::io::equilibrium_demo_study_text()}) {
       bandstack::io::Study study = bandstack::io::parse_study(text, "built-in demo study");
       study.source_file.clear();
-      run(study, o);
+      if (const int code = run(study, o); code != 0) return code;
     }
     return 0;
   }

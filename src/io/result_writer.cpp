@@ -1,31 +1,23 @@
 #include "bandstack/io/result_writer.hpp"
 
+#include <algorithm>
 #include <chrono>
 #include <ctime>
-#include <functional>
 #include <vector>
 
 #include <fmt/format.h>
-#include <netcdf>
 
 #include "bandstack/core/error.hpp"
 #include "bandstack/core/version.hpp"
 #include "bandstack/io/atomic_output.hpp"
 #include "bandstack/thermo/humidity.hpp"
-#include "io/netcdf_put.hpp"
+#include "io/result_define.hpp"
 
 namespace bandstack::io {
 
-namespace {
+namespace detail {
 
-using netCDF::NcDim;
-using netCDF::NcFile;
-using netCDF::NcVar;
-using detail::add_variable;
-using detail::put_per_column;
-using detail::put_profile;
-using detail::write_longwave;
-using detail::write_shortwave;
+namespace {
 
 std::string utc_now() {
   const std::time_t now = std::chrono::system_clock::to_time_t(std::chrono::system_clock::now());
@@ -47,91 +39,89 @@ const char* gas_standard_name(Gas g) {
   return nullptr;
 }
 
-// The leading dimensions with their coordinates.
-detail::Lead write_axes(NcFile& file, std::span<const OutputAxis> axes) {
-  detail::Lead lead;
+// The column state: pressures, temperatures, gases.
+void describe_state(Table& t) {
+  t.profile("pressure_level", "level", {"Pa", "air pressure at layer interfaces (level 0 = top of atmosphere)", "air_pressure"},
+            [](const R& r) -> const auto& { return r.column.pressure_level_pa; });
+  t.profile("temperature_level", "level", {"K", "air temperature at layer interfaces", "air_temperature"},
+            [](const R& r) -> const auto& { return r.column.temperature_level_k; });
+  t.profile("pressure_layer", "layer", {"Pa", "mean air pressure of the layer", "air_pressure"},
+            [](const R& r) -> const auto& { return r.column.pressure_layer_pa; });
+  t.profile("temperature_layer", "layer", {"K", "air temperature of the layer", "air_temperature"},
+            [](const R& r) -> const auto& { return r.column.temperature_layer_k; });
+  for (Gas g : all_gases) {
+    const std::string name = std::string(gas_name(g)) + "_mole_fraction";
+    const std::string long_name = std::string(gas_name(g)) + " mole fraction in moist air";
+    t.profile(name, "layer", {"mol mol-1", long_name.c_str(), gas_standard_name(g)},
+              [g](const R& r) -> const auto& { return r.column.gas(g); });
+  }
+  t.add("specific_humidity", {"layer"}, {"kg kg-1", "mass of water vapour per mass of moist air", "specific_humidity"}).get =
+      [n = t.dim_size("layer")](const R& r, double* out) {
+        const std::vector<double>& x = r.column.gas(Gas::h2o);
+        if (x.size() != n) throw InternalError("profile length mismatch while writing specific_humidity");
+        for (std::size_t i = 0; i < n; ++i) out[i] = thermo::specific_humidity_from_mole_fraction(x[i]);
+      };
+}
+
+// Surface values; a swept surface property is already the coordinate variable of its own dimension.
+void describe_surface(Table& t, std::span<const OutputAxis> axes) {
+  const auto swept = [&](const char* name) {
+    return std::any_of(axes.begin(), axes.end(), [&](const OutputAxis& a) { return a.name == name && !a.values.empty(); });
+  };
+  t.scalar("surface_temperature", {"K", "surface skin temperature", "surface_temperature"},
+           [](const R& r) { return r.column.surface_temperature_k; });
+  if (!swept("surface_emissivity"))
+    t.scalar("surface_emissivity", {"1", "broadband longwave emissivity of the surface", nullptr},
+             [](const R& r) { return r.column.surface_emissivity; });
+  if (!swept("surface_albedo"))
+    t.scalar("surface_albedo", {"1", "broadband shortwave albedo of the surface", "surface_albedo"},
+             [](const R& r) { return r.column.surface_albedo; });
+}
+
+} // namespace
+
+std::vector<netCDF::NcDim> define_axes(netCDF::NcFile& file, std::span<const OutputAxis> axes) {
+  std::vector<netCDF::NcDim> dims;
   for (const OutputAxis& axis : axes) {
-    const NcDim dim = file.addDim(axis.name, axis.size);
-    lead.dims.push_back(dim);
+    const netCDF::NcDim dim = file.addDim(axis.name, axis.size);
+    dims.push_back(dim);
     if (!axis.values.empty()) {
-      NcVar coord = file.addVar(axis.name, netCDF::ncDouble, dim);
+      netCDF::NcVar coord = file.addVar(axis.name, netCDF::ncDouble, dim);
       for (const auto& [key, value] : axis.attributes) coord.putAtt(key, value);
       coord.putVar(axis.values.data());
     }
     if (!axis.labels.empty()) {
       const std::string var_name = axis.name + "_name";
       std::size_t length = 1;
-      for (const std::string& l : axis.labels) length = std::max(length, l.size());
+      const std::string text = padded_names(axis.labels, length);
       // "name_length" for the columns' labels (the established name), <name>_name_length otherwise.
-      const NcDim chars = file.addDim(axis.name == "column" ? std::string("name_length") : var_name + "_length", length);
-      NcVar names = file.addVar(var_name, netCDF::ncChar, {dim, chars});
+      const netCDF::NcDim chars = file.addDim(axis.name == "column" ? std::string("name_length") : var_name + "_length", length);
+      netCDF::NcVar names = file.addVar(var_name, netCDF::ncChar, {dim, chars});
       names.putAtt("long_name", axis.name == "column" ? std::string("column label from the study") : axis.name + " label");
-      std::vector<char> text(axis.size * length, '\0');
-      for (std::size_t i = 0; i < axis.size; ++i)
-        std::copy(axis.labels[i].begin(), axis.labels[i].end(), text.begin() + static_cast<long>(i * length));
       names.putVar(text.data());
-      lead.coordinates += (lead.coordinates.empty() ? "" : " ") + var_name;
     }
   }
-  return lead;
+  return dims;
 }
 
-void write_contents(NcFile& file, std::span<const batch::ColumnResult> results, const RunInfo& info,
-                    std::span<const OutputAxis> axes) {
-  const std::size_t n_layers = results.front().column.layer_count();
-  const detail::Lead lead = write_axes(file, axes);
-  const NcDim level = file.addDim("level", n_layers + 1);
-  const NcDim layer = file.addDim("layer", n_layers);
+Table describe_result(const R& sample, const RunInfo& info, std::span<const OutputAxis> axes) {
+  Table t;
+  for (const OutputAxis& axis : axes)
+    if (!axis.labels.empty()) t.coordinates += (t.coordinates.empty() ? "" : " ") + axis.name + "_name";
+  const std::size_t n_layers = sample.column.layer_count();
+  t.add_dim("level", n_layers + 1);
+  t.add_dim("layer", n_layers);
+  describe_state(t);
+  describe_longwave(t, sample);
+  describe_shortwave(t, sample);
+  describe_equilibrium(t, sample);
+  describe_experiments(t, sample, info.experiment_names);
+  describe_attribution(t, sample);
+  describe_surface(t, axes);
+  return t;
+}
 
-  using R = batch::ColumnResult;
-  const std::vector<NcDim> per_level = lead.with({level});
-  const std::vector<NcDim> per_layer = lead.with({layer});
-  const std::string& coordinates = lead.coordinates;
-  put_profile(add_variable(file, "pressure_level", per_level, {"Pa", "air pressure at layer interfaces (level 0 = top of atmosphere)", "air_pressure"}, coordinates),
-              results, n_layers + 1, [](const R& r) -> const auto& { return r.column.pressure_level_pa; });
-  put_profile(add_variable(file, "temperature_level", per_level, {"K", "air temperature at layer interfaces", "air_temperature"}, coordinates),
-              results, n_layers + 1, [](const R& r) -> const auto& { return r.column.temperature_level_k; });
-  put_profile(add_variable(file, "pressure_layer", per_layer, {"Pa", "mean air pressure of the layer", "air_pressure"}, coordinates),
-              results, n_layers, [](const R& r) -> const auto& { return r.column.pressure_layer_pa; });
-  put_profile(add_variable(file, "temperature_layer", per_layer, {"K", "air temperature of the layer", "air_temperature"}, coordinates),
-              results, n_layers, [](const R& r) -> const auto& { return r.column.temperature_layer_k; });
-  for (Gas g : all_gases) {
-    const std::string name = std::string(gas_name(g)) + "_mole_fraction";
-    const std::string long_name = std::string(gas_name(g)) + " mole fraction in moist air";
-    put_profile(add_variable(file, name, per_layer, {"mol mol-1", long_name.c_str(), gas_standard_name(g)}, coordinates), results, n_layers,
-                [g](const R& r) -> const auto& { return r.column.gas(g); });
-  }
-  std::vector<std::vector<double>> specific_humidity;
-  for (const auto& r : results) {
-    std::vector<double> q;
-    for (double x : r.column.gas(Gas::h2o)) q.push_back(thermo::specific_humidity_from_mole_fraction(x));
-    specific_humidity.push_back(std::move(q));
-  }
-  {
-    std::vector<double> flat;
-    for (const auto& q : specific_humidity) flat.insert(flat.end(), q.begin(), q.end());
-    add_variable(file, "specific_humidity", per_layer, {"kg kg-1", "mass of water vapour per mass of moist air", "specific_humidity"}, coordinates)
-        .putVar(flat.data());
-  }
-
-  write_longwave(file, results, lead, level, layer);
-  write_shortwave(file, results, lead, level, layer);
-  detail::write_equilibrium(file, results, lead, layer);
-  detail::write_experiments(file, results, info.experiment_names, lead, layer);
-  detail::write_attribution(file, results, lead);
-
-  const std::vector<NcDim> scalar = lead.dims;
-  put_per_column(add_variable(file, "surface_temperature", scalar, {"K", "surface skin temperature", "surface_temperature"}, coordinates),
-                 results, [](const R& r) { return r.column.surface_temperature_k; });
-  // A swept surface property is already the coordinate variable of its own dimension.
-  const auto swept = [&](const char* name) { return !file.getVar(name).isNull(); };
-  if (!swept("surface_emissivity"))
-    put_per_column(add_variable(file, "surface_emissivity", scalar, {"1", "broadband longwave emissivity of the surface", nullptr}, coordinates),
-                   results, [](const R& r) { return r.column.surface_emissivity; });
-  if (!swept("surface_albedo"))
-    put_per_column(add_variable(file, "surface_albedo", scalar, {"1", "broadband shortwave albedo of the surface", "surface_albedo"}, coordinates),
-                   results, [](const R& r) { return r.column.surface_albedo; });
-
+void put_global_attributes(netCDF::NcFile& file, const RunInfo& info) {
   file.putAtt("Conventions", "CF-1.8");
   file.putAtt("title", info.title.empty() ? std::string("bandstack results") : info.title);
   file.putAtt("source", std::string("bandstack ") + std::string(version()));
@@ -145,7 +135,7 @@ void write_contents(NcFile& file, std::span<const batch::ColumnResult> results, 
   file.putAtt("comment", std::string(caution_text()));
 }
 
-} // namespace
+} // namespace detail
 
 void write_result_file(const std::filesystem::path& path, std::span<const batch::ColumnResult> results, const RunInfo& info,
                        std::span<const OutputAxis> axes) {
@@ -170,12 +160,10 @@ void write_result_file(const std::filesystem::path& path, std::span<const batch:
   if (points != results.size())
     throw InternalError(fmt::format("the output axes hold {} columns, the run has {}", points, results.size()));
   AtomicOutput out(path);
-  try {
-    NcFile file(out.temporary_path().string(), NcFile::replace, NcFile::nc4);
-    write_contents(file, results, info, axes);
-    file.close();
-  } catch (const netCDF::exceptions::NcException& e) {
-    throw FileError(path.string(), std::string("netCDF error while writing: ") + first_line(e.what()));
+  {
+    ResultFileWriter writer(out.temporary_path(), results.front(), info, axes);
+    writer.write_block(0, results);
+    writer.close();
   }
   out.commit();
 }

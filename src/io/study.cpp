@@ -1,5 +1,6 @@
 #include "bandstack/io/study.hpp"
 
+#include <algorithm>
 #include <fstream>
 #include <set>
 #include <sstream>
@@ -91,22 +92,49 @@ void read_sun(TomlReader& r, const toml::table& t, const std::string& prefix, Su
     r.problem(t.source(), prefix, "the Sun's position needs both latitude_deg and day_of_year");
 }
 
-ColumnSpec read_column(TomlReader& r, const toml::table& t, std::size_t i) {
+// profile_file and [columns.variables]; the built-in profile's own keys do not apply then.
+void read_profile_file_keys(TomlReader& r, const toml::table& t, const std::string& prefix, const std::string& file_name,
+                            ColumnSpec& spec) {
+  for (const char* key : {"profile", "surface_temperature_k", "surface_relative_humidity", "stratospheric_h2o_ppmv", "ozone_scale"})
+    if (t.contains(key))
+      r.problem(t.get(key)->source(), prefix + "." + key, "does not apply to a column read from a profile_file");
+  if (auto v = r.string(t, prefix, "profile_file")) {
+    std::filesystem::path path(*v);
+    if (path.is_relative() && !file_name.empty()) path = std::filesystem::path(file_name).parent_path() / path;
+    spec.profile_file = path;
+  }
+  const std::string vprefix = prefix + ".variables";
+  if (const toml::table* v = r.table(t, prefix, "variables")) {
+    ProfileVariables& m = spec.profile_variables;
+    r.reject_unknown_keys(*v, vprefix, {"pressure", "temperature", "surface_temperature", "surface_pressure", "h2o", "co2", "o3",
+                                        "ch4", "n2o", "vertical_dimension"});
+    const std::pair<const char*, std::string*> names[] = {
+        {"pressure", &m.pressure}, {"temperature", &m.temperature}, {"surface_temperature", &m.surface_temperature},
+        {"surface_pressure", &m.surface_pressure}, {"h2o", &m.h2o}, {"co2", &m.co2}, {"o3", &m.o3}, {"ch4", &m.ch4},
+        {"n2o", &m.n2o}, {"vertical_dimension", &m.vertical_dimension}};
+    for (const auto& [key, target] : names)
+      if (auto name = r.string(*v, vprefix, key)) *target = *name;
+  }
+}
+
+ColumnSpec read_column(TomlReader& r, const toml::table& t, std::size_t i, const std::string& file_name) {
   const std::string prefix = fmt::format("columns[{}]", i);
   r.reject_unknown_keys(t, prefix,
                         {"name", "profile", "surface_temperature_k", "surface_relative_humidity", "stratospheric_h2o_ppmv",
                          "co2_ppmv", "ch4_ppmv", "n2o_ppmv", "ozone_scale", "surface_emissivity", "surface_albedo",
                          "cos_zenith", "latitude_deg", "day_of_year", "local_solar_time_h", "surface_emissivity_by_band",
-                         "surface_albedo_by_band"});
+                         "surface_albedo_by_band", "profile_file", "variables"});
   ColumnSpec spec;
   spec.name = r.string(t, prefix, "name").value_or(fmt::format("column_{}", i));
   atmosphere::ProfileSettings& s = spec.settings;
-  if (auto v = r.string(t, prefix, "profile")) {
+  if (t.contains("profile_file")) {
+    read_profile_file_keys(r, t, prefix, file_name, spec);
+  } else if (auto v = r.string(t, prefix, "profile")) {
     if (auto p = atmosphere::profile_from_name(*v)) s.profile = *p;
     else r.problem(t.get("profile")->source(), prefix + ".profile",
                    "unknown built-in profile \"" + *v + "\" (known: us_standard_1976, tropical, midlatitude_summer, high_latitude_winter)");
   } else {
-    r.problem(t.source(), prefix + ".profile", "missing: every column needs a built-in profile");
+    r.problem(t.source(), prefix + ".profile", "missing: every column needs a built-in profile or a profile_file");
   }
   if (auto v = r.number(t, prefix, "surface_temperature_k", 150.0, 330.0)) s.surface_temperature_k = *v;
   if (auto v = r.number(t, prefix, "surface_relative_humidity", 0.0, 1.0)) s.surface_relative_humidity = *v;
@@ -166,7 +194,7 @@ Study parse_study(std::string_view text, const std::string& file_name) {
   if (tables.empty() && !root.get("columns")) r.problem("no columns: add at least one [[columns]] table");
   std::set<std::string> seen;
   for (std::size_t i = 0; i < tables.size(); ++i) {
-    ColumnSpec spec = read_column(r, *tables[i], i);
+    ColumnSpec spec = read_column(r, *tables[i], i, file_name);
     if (!seen.insert(spec.name).second)
       r.problem(tables[i]->source(), fmt::format("columns[{}].name", i), "duplicate column name \"" + spec.name + "\"");
     study.columns.push_back(std::move(spec));
@@ -180,6 +208,12 @@ Study parse_study(std::string_view text, const std::string& file_name) {
     if (!p.removed_shortwave_bands.empty() && study.shortwave.method != ShortwaveMethod::bands)
       r.problem(fmt::format("experiments[{}].remove_shortwave_bands needs the shortwave method \"bands\"", i));
   }
+  const bool from_file = std::any_of(study.columns.begin(), study.columns.end(),
+                                     [](const ColumnSpec& c) { return !c.profile_file.empty(); });
+  if (from_file && study.columns.size() > 1)
+    r.problem("a study with a profile_file column has only that column (the file's columns are the study's columns)");
+  if (from_file && !study.sweeps.empty())
+    r.problem("[[sweeps]] cannot be combined with a profile_file column yet");
   r.throw_if_problems();
   return study;
 }

@@ -1,5 +1,7 @@
 #include "bandstack/io/sweep.hpp"
 
+#include <memory>
+
 #include <fmt/format.h>
 
 #include "bandstack/core/error.hpp"
@@ -52,7 +54,39 @@ void set_column_value(ColumnSpec& spec, std::string_view key, double value) {
   else throw InputError(InputPlace::of("sweeps.key"), fmt::format("\"{}\" cannot be swept", key));
 }
 
+namespace {
+
+// A study whose one column is a profile file: the file's columns, with its leading dimensions as
+// the output axes (a file without leading dimensions gives one "column").
+ExpandedStudy expand_profile_file(const Study& study) {
+  const ColumnSpec& spec = study.columns.front();
+  const atmosphere::ProfileSettings& s = spec.settings;
+  ProfileDefaults defaults;
+  defaults.co2_mole_fraction = s.co2_mole_fraction;
+  defaults.ch4_mole_fraction = s.ch4_mole_fraction;
+  defaults.n2o_mole_fraction = s.n2o_mole_fraction;
+  defaults.surface_emissivity = s.surface_emissivity;
+  defaults.surface_albedo = s.surface_albedo;
+  ProfileFile file = read_profile_file(spec.profile_file, spec.profile_variables, defaults);
+  ExpandedStudy out;
+  out.study = study;
+  out.study.columns.clear();
+  for (std::size_t c = 0; c < file.columns.size(); ++c) {
+    ColumnSpec copy = spec;
+    copy.name = file.columns.size() == 1 ? spec.name : fmt::format("{}[{}]", spec.name, c);
+    copy.given_column = std::make_shared<const atmosphere::Column>(std::move(file.columns[c]));
+    out.study.columns.push_back(std::move(copy));
+  }
+  for (const LeadingAxis& a : file.axes)
+    out.axes.push_back(OutputAxis{a.name, a.size, a.values, {}, a.attributes});
+  if (out.axes.empty()) out.axes.push_back(OutputAxis{"column", 1, {}, {spec.name}, {}});
+  return out;
+}
+
+} // namespace
+
 ExpandedStudy expand_sweeps(const Study& study) {
+  if (study.columns.size() == 1 && !study.columns.front().profile_file.empty()) return expand_profile_file(study);
   ExpandedStudy out;
   out.study = study;
   out.study.sweeps.clear();

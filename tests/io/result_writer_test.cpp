@@ -1,5 +1,7 @@
 #include "bandstack/io/result_writer.hpp"
 
+#include <span>
+
 #include <netcdf>
 
 #include <gtest/gtest.h>
@@ -74,6 +76,40 @@ TEST(ResultWriter, MismatchedLevelsAreRejectedAndNothingIsWritten) {
   std::vector<batch::ColumnResult> results{make_result("a", 4, 0.0), make_result("b", 5, 0.0)};
   EXPECT_THROW(write_result_file(path, results, RunInfo{}), InputError);
   EXPECT_FALSE(fs::exists(path));
+}
+
+TEST(ResultWriter, BlocksOverTwoAxesFillTheFileInRowMajorOrder) {
+  const fs::path path = fs::temp_directory_path() / "bandstack_writer_blocks.nc";
+  std::vector<batch::ColumnResult> results;
+  for (int i = 0; i < 6; ++i) results.push_back(make_result(std::string("c").append(std::to_string(i)), 3, 10.0 * i)); // append: GCC 12 -Wrestrict false positive
+  std::vector<OutputAxis> axes(2);
+  axes[0].name = "column";
+  axes[0].size = 2;
+  axes[0].labels = {"north", "south"};
+  axes[1].name = "co2_ppmv";
+  axes[1].size = 3;
+  axes[1].values = {280, 560, 1120};
+  {
+    ResultFileWriter writer(path, results.front(), RunInfo{}, axes, StorageSettings{1, 2});
+    // Blocks of 4 and 2 columns: the first crosses from column 0 into column 1.
+    writer.write_block(0, std::span(results).subspan(0, 4));
+    writer.write_block(4, std::span(results).subspan(4, 2));
+    writer.close();
+  }
+  netCDF::NcFile file(path.string(), netCDF::NcFile::read);
+  double olr[6];
+  file.getVar("olr").getVar(olr);
+  for (int i = 0; i < 6; ++i) EXPECT_DOUBLE_EQ(olr[i], 240.0 + 10.0 * i) << i; // flux_up[0] of make_result
+  double up[6 * 4];
+  file.getVar("lw_flux_up").getVar(up);
+  EXPECT_DOUBLE_EQ(up[5 * 4 + 3], 243.0 + 50.0);
+  bool shuffle = false, deflate = false;
+  int level = 0;
+  file.getVar("olr").getCompressionParameters(shuffle, deflate, level);
+  EXPECT_TRUE(deflate);
+  EXPECT_EQ(level, 1);
+  file.close();
+  fs::remove(path);
 }
 
 } // namespace

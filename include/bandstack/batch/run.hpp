@@ -2,7 +2,9 @@
 // Running a study: build every column, compute it (in parallel, deterministically), write the result.
 #include <cstddef>
 #include <filesystem>
+#include <functional>
 #include <string>
+#include <string_view>
 #include <vector>
 
 #include "bandstack/batch/column_result.hpp"
@@ -13,6 +15,14 @@ namespace bandstack::batch {
 struct RunOptions {
   std::size_t threads = 0;                   // worker threads; 0 = all hardware threads
   std::filesystem::path output_directory;    // if not empty, the output file is written here instead
+  // Columns computed (in parallel) and written per block; memory use grows with this, not with the
+  // number of columns of the study. Part of the checkpoint: a run resumes only with the same value.
+  std::size_t chunk_columns = 256;
+  int deflate_level = 0;                     // netCDF deflate level of the result (0 = none, 1..9)
+  bool resume = true;                        // continue an interrupted run of the same study and settings
+  bool progress = false;                     // show columns done, rate and time left on stderr
+  std::size_t summary_columns = 1000;        // RunOutcome::results is kept only up to this many columns
+  std::function<void(std::string_view)> note; // receives notes (resuming, starting afresh); may be empty
 };
 
 // The Sun's geometry a column spec asks for (see io::SunSpec).
@@ -38,15 +48,28 @@ struct RunOptions {
 
 struct RunOutcome {
   std::filesystem::path output_file;  // the file written
-  std::vector<ColumnResult> results;  // one per column, in study order
+  // One per column, in study order, when the run computed all of them itself (not resumed) and has
+  // at most RunOptions::summary_columns columns; otherwise empty (the results are in the file).
+  std::vector<ColumnResult> results;
   std::vector<std::string> experiment_names; // the study's experiments, in order
+  std::size_t column_count = 0;       // columns of the study (with sweeps expanded)
+  std::size_t resumed_from = 0;       // columns taken from an interrupted run's working file
+  int interrupted_by = 0;             // the signal (SIGINT, SIGTERM) that stopped the run, or 0
+  std::size_t columns_written = 0;    // columns in the file (all of them unless interrupted)
 };
 
 // The whole job: checks the output folder is writable, builds, computes and writes the result file
-// atomically.
+// block of RunOptions::chunk_columns columns by block, so memory stays bounded. The result is
+// bit-identical for any thread count and block size. The final file appears only when complete;
+// until then it is built in a working file next to it with a checkpoint record
+// (io::working_path, io::checkpoint_path), synced after every block. If the same study with the same
+// settings was interrupted before (signal, kill -9), the run continues after the last block
+// recorded. SIGINT and SIGTERM stop the run after the current block (outcome.interrupted_by set;
+// running the same command again resumes). Any error removes the working file and the record.
 RunOutcome run_study(const io::Study& study, const RunOptions& options);
 
-// A short plain-text table of the main results (one line per column) for the terminal.
+// A short plain-text table of the main results (one line per column) for the terminal; only a
+// count when the outcome holds no results.
 [[nodiscard]] std::string format_summary(const RunOutcome& outcome);
 
 } // namespace bandstack::batch

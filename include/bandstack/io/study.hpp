@@ -1,6 +1,7 @@
 #pragma once
 // A study: everything one run needs, read from a TOML study file (format: docs/study-file.md).
 #include <filesystem>
+#include <memory>
 #include <optional>
 #include <string>
 #include <string_view>
@@ -10,6 +11,7 @@
 #include "bandstack/climate/equilibrium.hpp"
 #include "bandstack/climate/perturbation.hpp"
 #include "bandstack/io/demo_study.hpp"
+#include "bandstack/io/profile_file.hpp"
 #include "bandstack/atmosphere/profiles.hpp"
 #include "bandstack/solvers/grey.hpp"
 
@@ -26,10 +28,17 @@ struct SunSpec {
   std::optional<double> local_solar_time_h;
 };
 
-// One column of the study: a built-in profile with its settings.
+// One column of the study: a built-in profile with its settings, or a profile file.
 struct ColumnSpec {
   std::string name;
   atmosphere::ProfileSettings settings;
+  // [[columns]] profile_file: the file (relative paths resolved against the study's folder) and the
+  // variable names given under [columns.variables]; io::expand_sweeps reads it.
+  std::filesystem::path profile_file;
+  ProfileVariables profile_variables;
+  // Set by io::expand_sweeps for a column read from a profile file: used instead of `settings`'
+  // built-in profile (the sun and the per-band surface keys still come from this spec).
+  std::shared_ptr<const atmosphere::Column> given_column;
   SunSpec sun;
   // Optional per-band surface properties; empty = the broadband value in every band. When given,
   // one value per band of the longwave (emissivity) or shortwave (albedo) band set.

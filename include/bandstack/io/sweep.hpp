@@ -39,7 +39,9 @@ struct OutputAxis {
 
 // The study with its sweeps expanded: columns holds one spec per point of the output axes, in
 // row-major order (the study's columns outermost, then each sweep in study order), and sweeps is
-// empty. Throws InputError (naming the sweep) if a combination is invalid (e.g. latitude_deg swept
+// empty. A study whose column is a profile_file expands into the file's columns (given_column set,
+// named "<name>[i]"), with the file's leading dimensions as the axes (io/profile_file.hpp); the
+// file's errors propagate. Throws InputError (naming the sweep) if a combination is invalid (e.g. latitude_deg swept
 // on a column without day_of_year).
 struct ExpandedStudy {
   Study study;

@@ -1,0 +1,25 @@
+#pragma once
+// Private to batch: the pieces of a run shared by compute_columns (all at once) and run_study
+// (block by block).
+#include <cstddef>
+
+#include "bandstack/batch/column_result.hpp"
+#include "bandstack/io/study.hpp"
+#include "batch/climate_setup.hpp"
+#include "batch/longwave_setup.hpp"
+#include "batch/shortwave_setup.hpp"
+
+namespace bandstack::batch {
+
+// Column i of a study without sweeps (io::expand_sweeps), with its Sun; InputError names it.
+[[nodiscard]] atmosphere::Column build_column(const io::Study& study, std::size_t i);
+
+// Per-band surface properties must match the band sets the study uses (InputError otherwise).
+void check_band_properties(const io::Study& study, const LongwaveSetup& lw, const ShortwaveSetup& sw);
+
+// Computes column c (its index in the study without sweeps, built by build_column) into `result`:
+// climate (equilibrium, experiments, attribution) and fluxes. Errors name the column.
+void compute_one(const io::Study& study, const LongwaveSetup& setup, const ShortwaveSetup& sw_setup,
+                 const ClimateSetup& climate_setup, std::size_t c, const atmosphere::Column& column, ColumnResult& result);
+
+} // namespace bandstack::batch

@@ -1,0 +1,222 @@
+// io::ResultFileWriter: defines a result file once, then fills it block of columns by block.
+#include <algorithm>
+#include <cerrno>
+#include <cstring>
+#include <limits>
+
+#include <fcntl.h>
+#include <unistd.h>
+
+#include <fmt/format.h>
+
+#include "bandstack/core/error.hpp"
+#include "bandstack/io/result_writer.hpp"
+#include "io/flat_range.hpp"
+#include "io/result_define.hpp"
+
+namespace bandstack::io {
+
+using detail::R;
+using detail::Storage;
+using detail::Table;
+using detail::Variable;
+
+struct ResultFileWriter::Impl {
+  std::filesystem::path path;
+  netCDF::NcFile file;
+  Table table;
+  std::vector<netCDF::NcVar> vars;          // the per-column variables, in table order
+  std::vector<const Variable*> described;   // their descriptions
+  std::vector<std::size_t> lead_shape;
+  R sample_shape;                            // the sample without its values (bands, levels, options)
+};
+
+namespace {
+
+// Leading chunk sizes: about `columns` columns (fewer for wide variables, at most ~4 MiB per chunk),
+// whole inner axes first.
+std::vector<std::size_t> chunk_shape(const std::vector<std::size_t>& lead, std::size_t values_per_column,
+                                     std::size_t columns, const Table& table, const Variable& v) {
+  const std::size_t max_columns = std::max<std::size_t>(1, (std::size_t{4} << 20) / (8 * values_per_column));
+  std::size_t remaining = std::clamp<std::size_t>(columns, 1, max_columns);
+  std::vector<std::size_t> chunk(lead.size());
+  for (std::size_t d = lead.size(); d-- > 0;) {
+    chunk[d] = std::max<std::size_t>(1, std::min(lead[d], remaining));
+    remaining = std::max<std::size_t>(1, remaining / chunk[d]);
+  }
+  for (const std::string& d : v.dims) chunk.push_back(table.dim_size(d));
+  return chunk;
+}
+
+// The shape facts a result must share with the sample to go into the same file.
+R shape_of(const R& sample) {
+  R s;
+  s.column.pressure_level_pa.resize(sample.column.level_count());
+  s.longwave.band_lower_cm1 = sample.longwave.band_lower_cm1;
+  s.longwave.band_upper_cm1 = sample.longwave.band_upper_cm1;
+  s.shortwave.flux_up.resize(sample.shortwave.flux_up.size());
+  s.shortwave.band_lower_cm1 = sample.shortwave.band_lower_cm1;
+  s.shortwave.band_upper_cm1 = sample.shortwave.band_upper_cm1;
+  if (sample.equilibrium) s.equilibrium.emplace();
+  s.experiments.resize(sample.experiments.size());
+  if (sample.attribution) {
+    s.attribution.emplace();
+    s.attribution->band_removal_w_m2.resize(sample.attribution->band_removal_w_m2.size());
+  }
+  return s;
+}
+
+void check_like(const R& shape, const R& r, std::size_t index, const std::filesystem::path& path) {
+  if (r.column.level_count() != shape.column.level_count())
+    throw InputError(InputPlace{path.string(), "level", {}, {}, static_cast<long>(index), {}},
+                     fmt::format("all columns of one file need the same number of levels ({} here, {} in the others)",
+                                 r.column.level_count(), shape.column.level_count()));
+  const bool same = r.longwave.band_lower_cm1 == shape.longwave.band_lower_cm1 &&
+                    r.longwave.band_upper_cm1 == shape.longwave.band_upper_cm1 &&
+                    r.has_shortwave() == shape.has_shortwave() && r.shortwave.band_lower_cm1 == shape.shortwave.band_lower_cm1 &&
+                    r.shortwave.band_upper_cm1 == shape.shortwave.band_upper_cm1 &&
+                    r.equilibrium.has_value() == shape.equilibrium.has_value() &&
+                    r.experiments.size() == shape.experiments.size() && r.attribution.has_value() == shape.attribution.has_value() &&
+                    (!r.attribution || r.attribution->band_removal_w_m2.size() == shape.attribution->band_removal_w_m2.size());
+  if (!same)
+    throw InternalError(fmt::format("column {} has other bands or results than the first column of the file", index));
+}
+
+FileError netcdf_error(const std::filesystem::path& path, const netCDF::exceptions::NcException& e) {
+  return FileError(path.string(), std::string("netCDF error while writing: ") + first_line(e.what()));
+}
+
+} // namespace
+
+ResultFileWriter::ResultFileWriter(std::unique_ptr<Impl> impl) : impl_(std::move(impl)) {}
+ResultFileWriter::ResultFileWriter(ResultFileWriter&&) noexcept = default;
+ResultFileWriter& ResultFileWriter::operator=(ResultFileWriter&&) noexcept = default;
+ResultFileWriter::~ResultFileWriter() {
+  try {
+    if (impl_) impl_->file.close();
+  } catch (...) { // NOLINT(bugprone-empty-catch): closing after an error; the error is reported already
+  }
+}
+
+ResultFileWriter::ResultFileWriter(const std::filesystem::path& path, const R& sample, const RunInfo& info,
+                                   std::span<const OutputAxis> axes, const StorageSettings& storage)
+    : impl_(std::make_unique<Impl>()) {
+  if (axes.empty()) throw InternalError("a result file needs at least one leading axis");
+  Impl& m = *impl_;
+  m.path = path;
+  m.table = detail::describe_result(sample, info, axes);
+  m.sample_shape = shape_of(sample);
+  for (const OutputAxis& a : axes) m.lead_shape.push_back(a.size);
+  try {
+    m.file.open(path.string(), netCDF::NcFile::replace, netCDF::NcFile::nc4);
+    const std::vector<netCDF::NcDim> lead = detail::define_axes(m.file, axes);
+    for (const auto& [name, size] : m.table.dims) m.file.addDim(name, size);
+    for (const Variable& v : m.table.variables) {
+      std::vector<netCDF::NcDim> dims = v.per_column ? lead : std::vector<netCDF::NcDim>{};
+      for (const std::string& d : v.dims) dims.push_back(m.file.getDim(d));
+      const netCDF::NcType type = v.storage == Storage::f64  ? netCDF::NcType(netCDF::ncDouble)
+                                 : v.storage == Storage::i8 ? netCDF::NcType(netCDF::ncByte)
+                                                            : netCDF::NcType(netCDF::ncChar);
+      netCDF::NcVar var = m.file.addVar(v.name, type, dims);
+      if (v.per_column) {
+        std::vector<std::size_t> chunk = chunk_shape(m.lead_shape, v.values_per_column, storage.chunk_columns, m.table, v);
+        var.setChunking(netCDF::NcVar::nc_CHUNKED, chunk);
+        if (storage.deflate_level > 0) var.setCompression(true, true, std::clamp(storage.deflate_level, 1, 9));
+      }
+      if (v.fill_nan) var.setFill(true, std::numeric_limits<double>::quiet_NaN());
+      for (const auto& [key, value] : v.attributes) var.putAtt(key, value);
+      if (!v.per_column) {
+        if (v.storage == Storage::text) var.putVar(v.text.data());
+        else var.putVar(v.values.data());
+      } else {
+        m.vars.push_back(var);
+        m.described.push_back(&v);
+      }
+    }
+    detail::put_global_attributes(m.file, info);
+  } catch (const netCDF::exceptions::NcException& e) {
+    throw netcdf_error(path, e);
+  }
+}
+
+ResultFileWriter ResultFileWriter::reopen(const std::filesystem::path& path, const R& sample, const RunInfo& info,
+                                          std::span<const OutputAxis> axes) {
+  auto m = std::make_unique<Impl>();
+  m->path = path;
+  m->table = detail::describe_result(sample, info, axes);
+  m->sample_shape = shape_of(sample);
+  for (const OutputAxis& a : axes) m->lead_shape.push_back(a.size);
+  try {
+    m->file.open(path.string(), netCDF::NcFile::write);
+    for (const Variable& v : m->table.variables) {
+      if (!v.per_column) continue;
+      netCDF::NcVar var = m->file.getVar(v.name);
+      if (var.isNull() || var.getDimCount() != static_cast<int>(m->lead_shape.size() + v.dims.size()))
+        throw FileError(path.string(), "the unfinished result file does not have the variable " + v.name + " as expected");
+      for (std::size_t d = 0; d < m->lead_shape.size(); ++d)
+        if (var.getDim(static_cast<int>(d)).getSize() != m->lead_shape[d])
+          throw FileError(path.string(), "the unfinished result file has other dimensions than this run");
+      m->vars.push_back(var);
+      m->described.push_back(&v);
+    }
+  } catch (const netCDF::exceptions::NcException& e) {
+    throw FileError(path.string(), std::string("cannot reopen the unfinished result file: ") + first_line(e.what()));
+  }
+  return ResultFileWriter(std::move(m));
+}
+
+void ResultFileWriter::write_block(std::size_t first, std::span<const R> results) {
+  Impl& m = *impl_;
+  for (std::size_t i = 0; i < results.size(); ++i) check_like(m.sample_shape, results[i], first + i, m.path);
+  const std::vector<detail::Hyperslab> slabs = detail::flat_range_slabs(m.lead_shape, first, results.size());
+  std::vector<double> data;
+  std::vector<signed char> bytes;
+  try {
+    for (std::size_t k = 0; k < m.vars.size(); ++k) {
+      const Variable& v = *m.described[k];
+      data.resize(results.size() * v.values_per_column);
+      for (std::size_t i = 0; i < results.size(); ++i) v.get(results[i], data.data() + i * v.values_per_column);
+      if (v.storage == Storage::i8) bytes.assign(data.begin(), data.end());
+      std::size_t offset = 0;
+      for (const detail::Hyperslab& slab : slabs) {
+        std::vector<std::size_t> start = slab.start, count = slab.count;
+        std::size_t columns = 1;
+        for (std::size_t c : slab.count) columns *= c;
+        for (const std::string& d : v.dims) {
+          start.push_back(0);
+          count.push_back(m.table.dim_size(d));
+        }
+        if (v.storage == Storage::i8) m.vars[k].putVar(start, count, bytes.data() + offset);
+        else m.vars[k].putVar(start, count, data.data() + offset);
+        offset += columns * v.values_per_column;
+      }
+    }
+  } catch (const netCDF::exceptions::NcException& e) {
+    throw netcdf_error(m.path, e);
+  }
+}
+
+void ResultFileWriter::sync() {
+  Impl& m = *impl_;
+  try {
+    m.file.sync();
+  } catch (const netCDF::exceptions::NcException& e) {
+    throw netcdf_error(m.path, e);
+  }
+  const int fd = ::open(m.path.c_str(), O_RDONLY);
+  if (fd < 0 || ::fsync(fd) != 0) {
+    if (fd >= 0) ::close(fd);
+    throw FileError(m.path.string(), std::string("cannot flush the output to disk: ") + std::strerror(errno));
+  }
+  ::close(fd);
+}
+
+void ResultFileWriter::close() {
+  try {
+    impl_->file.close();
+  } catch (const netCDF::exceptions::NcException& e) {
+    throw netcdf_error(impl_->path, e);
+  }
+}
+
+} // namespace bandstack::io
