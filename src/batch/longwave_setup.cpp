@@ -77,7 +77,9 @@ solvers::LongwaveResult solve_longwave(const io::Study& study, const LongwaveSet
   switch (study.longwave.method) {
   case io::LongwaveMethod::grey: return solvers::solve_grey_longwave(column, study.longwave.grey, setup.angles);
   case io::LongwaveMethod::bands: {
-    solvers::BandLongwaveWorkspace workspace;
+    // One workspace per thread, reused across columns: fresh large allocations per column cost page
+    // faults that do not scale across threads. Its contents never reach the results.
+    thread_local solvers::BandLongwaveWorkspace workspace;
     solvers::LongwaveResult result;
     solvers::solve_band_longwave(column, *setup.tables, setup.angles, surface_emissivity_by_band, workspace, result);
     return result;

@@ -36,7 +36,7 @@ solvers::ShortwaveResult solve_shortwave(const ShortwaveSetup& setup, const atmo
                                          std::span<const double> surface_albedo_by_band) {
   solvers::ShortwaveResult result;
   if (!setup.tables) return result;
-  solvers::BandShortwaveWorkspace workspace;
+  thread_local solvers::BandShortwaveWorkspace workspace; // reused per thread, as for the longwave
   solvers::solve_band_shortwave(column, *setup.tables, surface_albedo_by_band, setup.solar_constant_w_m2, workspace, result);
   return result;
 }
