@@ -143,29 +143,43 @@ std::filesystem::path output_path(const io::Study& study, const RunOptions& opti
   return options.output_directory / study.output_file.filename();
 }
 
+ColumnSummary summarise(const ColumnResult& r) {
+  ColumnSummary s;
+  s.name = r.column.name;
+  s.surface_temperature_k = r.column.surface_temperature_k;
+  s.olr_w_m2 = r.longwave.olr();
+  s.surface_lw_down_w_m2 = r.longwave.surface_down();
+  if (r.has_shortwave()) s.absorbed_solar_w_m2 = r.shortwave.absorbed_solar();
+  for (const climate::ExperimentResult& x : r.experiments) {
+    ColumnSummary::Experiment e{x.forcing.toa_instantaneous_w_m2, x.forcing.adjusted_w_m2, std::nullopt};
+    if (x.equilibrium) e.surface_temperature_change_k = x.surface_temperature_change_k;
+    s.experiments.push_back(e);
+  }
+  return s;
+}
+
 std::string format_summary(const RunOutcome& outcome) {
-  if (outcome.results.size() != outcome.column_count || outcome.results.empty())
+  if (outcome.summaries.size() != outcome.column_count || outcome.summaries.empty())
     return fmt::format("{} columns{}\nwrote {}\n", outcome.column_count,
                        outcome.resumed_from > 0 ? fmt::format(" ({} of them from the interrupted run)", outcome.resumed_from) : "",
                        outcome.output_file.string());
   std::string text = fmt::format("{:<28} {:>9} {:>9} {:>9} {:>9} {:>9}   (W m-2; T in K)\n", "column", "T_surf",
                                  "OLR", "LW_down", "ASR", "TOA_net");
-  for (const ColumnResult& r : outcome.results) {
-    const bool sw = r.has_shortwave();
-    text += fmt::format("{:<28} {:>9.2f} {:>9.2f} {:>9.2f} {:>9} {:>9}\n", r.column.name, r.column.surface_temperature_k,
-                        r.longwave.olr(), r.longwave.surface_down(),
-                        sw ? fmt::format("{:.2f}", r.shortwave.absorbed_solar()) : "-",
-                        sw ? fmt::format("{:.2f}", r.shortwave.absorbed_solar() - r.longwave.olr()) : "-");
+  for (const ColumnSummary& r : outcome.summaries) {
+    const auto asr = r.absorbed_solar_w_m2;
+    text += fmt::format("{:<28} {:>9.2f} {:>9.2f} {:>9.2f} {:>9} {:>9}\n", r.name, r.surface_temperature_k, r.olr_w_m2,
+                        r.surface_lw_down_w_m2, asr ? fmt::format("{:.2f}", *asr) : "-",
+                        asr ? fmt::format("{:.2f}", *asr - r.olr_w_m2) : "-");
   }
   if (!outcome.experiment_names.empty()) {
     text += fmt::format("\n{:<28} {:<28} {:>9} {:>9} {:>9}   (forcing in W m-2; dT_surf in K)\n", "column", "experiment",
                         "F_TOA", "F_adj", "dT_surf");
-    for (const ColumnResult& r : outcome.results)
+    for (const ColumnSummary& r : outcome.summaries)
       for (std::size_t e = 0; e < r.experiments.size() && e < outcome.experiment_names.size(); ++e) {
-        const climate::ExperimentResult& x = r.experiments[e];
-        text += fmt::format("{:<28} {:<28} {:>9.3f} {:>9.3f} {:>9}\n", r.column.name, outcome.experiment_names[e],
-                            x.forcing.toa_instantaneous_w_m2, x.forcing.adjusted_w_m2,
-                            x.equilibrium ? fmt::format("{:.3f}", x.surface_temperature_change_k) : "-");
+        const ColumnSummary::Experiment& x = r.experiments[e];
+        text += fmt::format("{:<28} {:<28} {:>9.3f} {:>9.3f} {:>9}\n", r.name, outcome.experiment_names[e], x.forcing_toa_w_m2,
+                            x.forcing_adjusted_w_m2,
+                            x.surface_temperature_change_k ? fmt::format("{:.3f}", *x.surface_temperature_change_k) : "-");
       }
   }
   return text + fmt::format("wrote {}\n", outcome.output_file.string());

@@ -167,12 +167,13 @@ RunOutcome run_study(const io::Study& study, const RunOptions& options) {
       io::Checkpoint now = record;
       now.columns_written = first;
       io::write_checkpoint(io::checkpoint_path(path), now);
-      if (keep) std::move(results.begin(), results.end(), std::back_inserter(outcome.results));
+      if (keep)
+        for (const ColumnResult& r : results) outcome.summaries.push_back(summarise(r));
       if (const int signal = InterruptGuard::signal_received(); signal != 0 && first < total) {
         progress.finish();
         outcome.interrupted_by = signal;
         outcome.columns_written = first;
-        outcome.results.clear();
+        outcome.summaries.clear();
         return outcome;
       }
     }

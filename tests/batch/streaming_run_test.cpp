@@ -79,7 +79,7 @@ TEST_F(StreamingRun, FileIsTheSameForAnyBlockSizeAndThreadCount) {
   const RunOutcome a = run_study(study, one);
   const RunOutcome b = run_study(study, many);
   EXPECT_EQ(a.column_count, 10u);
-  EXPECT_EQ(a.results.size(), 10u);
+  EXPECT_EQ(a.summaries.size(), 10u);
   EXPECT_EQ(b.interrupted_by, 0);
   const auto va = variable_bytes(a.output_file);
   const auto vb = variable_bytes(b.output_file);

@@ -2,6 +2,7 @@
 // Running a study: build every column, compute it (in parallel, deterministically), write the result.
 #include <cstddef>
 #include <filesystem>
+#include <optional>
 #include <functional>
 #include <string>
 #include <string_view>
@@ -21,7 +22,7 @@ struct RunOptions {
   int deflate_level = 0;                     // netCDF deflate level of the result (0 = none, 1..9)
   bool resume = true;                        // continue an interrupted run of the same study and settings
   bool progress = false;                     // show columns done, rate and time left on stderr
-  std::size_t summary_columns = 1000;        // RunOutcome::results is kept only up to this many columns
+  std::size_t summary_columns = 1000;        // RunOutcome::summaries are kept only up to this many columns
   std::function<void(std::string_view)> note; // receives notes (resuming, starting afresh); may be empty
 };
 
@@ -46,11 +47,30 @@ struct RunOptions {
 // Where the study's output will be written under these options.
 [[nodiscard]] std::filesystem::path output_path(const io::Study& study, const RunOptions& options);
 
+// The few numbers of one column the terminal summary shows.
+struct ColumnSummary {
+  std::string name;
+  double surface_temperature_k = 0.0;
+  double olr_w_m2 = 0.0;
+  double surface_lw_down_w_m2 = 0.0;
+  std::optional<double> absorbed_solar_w_m2;         // without shortwave: none
+  struct Experiment {
+    double forcing_toa_w_m2 = 0.0;
+    double forcing_adjusted_w_m2 = 0.0;
+    std::optional<double> surface_temperature_change_k; // without equilibrium: none
+  };
+  std::vector<Experiment> experiments;
+};
+
+// The summary line of a computed column.
+[[nodiscard]] ColumnSummary summarise(const ColumnResult& result);
+
 struct RunOutcome {
   std::filesystem::path output_file;  // the file written
   // One per column, in study order, when the run computed all of them itself (not resumed) and has
-  // at most RunOptions::summary_columns columns; otherwise empty (the results are in the file).
-  std::vector<ColumnResult> results;
+  // One line of the terminal summary per column, kept when the run computed every column itself and
+  // has at most RunOptions::summary_columns columns; otherwise empty (the results are in the file).
+  std::vector<ColumnSummary> summaries;
   std::vector<std::string> experiment_names; // the study's experiments, in order
   std::size_t column_count = 0;       // columns of the study (with sweeps expanded)
   std::size_t resumed_from = 0;       // columns taken from an interrupted run's working file
