@@ -5,6 +5,7 @@
 #include "bandstack/climate/attribution.hpp"
 #include "bandstack/climate/experiment.hpp"
 #include "bandstack/core/error.hpp"
+#include "bandstack/io/sweep.hpp"
 #include "bandstack/solvers/band_longwave.hpp"
 #include "bandstack/solvers/band_shortwave.hpp"
 #include "bandstack/spectral/band_set.hpp"
@@ -146,7 +147,7 @@ climate::NetHeating study_radiation(const io::Study& study, const LongwaveSetup&
 
 void compute_climate(const ClimateSetup& setup, std::size_t c, const atmosphere::Column& start, ColumnResult& result) {
   const io::Study& study = *setup.study;
-  const io::ColumnSpec& spec = study.columns[c];
+  const io::ColumnSpec spec = io::column_spec(study, c); // outlives every callback made here
   const climate::NetHeating radiation = study_radiation(study, *setup.longwave, *setup.shortwave, spec);
   climate::BaseState base{start, std::nullopt};
   climate::EquilibriumSettings settings;

@@ -11,7 +11,7 @@
 
 namespace bandstack::batch {
 
-// Column i of a study without sweeps (io::expand_sweeps), with its Sun; InputError names it.
+// Column i of the study's expansion (io::column_spec), with its Sun; InputError names it.
 [[nodiscard]] atmosphere::Column build_column(const io::Study& study, std::size_t i);
 
 // Per-band surface properties must match the band sets the study uses (InputError otherwise).

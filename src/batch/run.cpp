@@ -25,9 +25,9 @@ atmosphere::SunGeometry sun_geometry(const io::SunSpec& sun) {
   return {0.5, 1.0, 0.5};
 }
 
-// Column i of a study without sweeps.
+// Column i of the study's expansion (io::column_spec).
 atmosphere::Column build_column(const io::Study& study, std::size_t i) {
-  const io::ColumnSpec& spec = study.columns[i];
+  const io::ColumnSpec spec = io::column_spec(study, i);
   try {
     atmosphere::Column column;
     if (spec.given_column) {
@@ -47,18 +47,19 @@ atmosphere::Column build_column(const io::Study& study, std::size_t i) {
 
 namespace {
 
-// The columns of a study without sweeps.
+// Every column of the study's expansion.
 std::vector<atmosphere::Column> build_flat_columns(const io::Study& study) {
   std::vector<atmosphere::Column> columns;
-  columns.reserve(study.columns.size());
-  for (std::size_t i = 0; i < study.columns.size(); ++i) columns.push_back(build_column(study, i));
+  const std::size_t n = io::column_count(study);
+  columns.reserve(n);
+  for (std::size_t i = 0; i < n; ++i) columns.push_back(build_column(study, i));
   return columns;
 }
 
 } // namespace
 
 std::vector<atmosphere::Column> build_columns(const io::Study& study) {
-  return build_flat_columns(io::expand_sweeps(study).study);
+  return build_flat_columns(io::prepare_columns(study).study);
 }
 
 // Per-band surface properties must match the band sets the study uses.
@@ -83,7 +84,7 @@ void compute_one(const io::Study& study, const LongwaveSetup& setup, const Short
   result.column = column;
   try {
     compute_climate(climate_setup, c, column, result);
-    const io::ColumnSpec& spec = study.columns[c];
+    const io::ColumnSpec spec = io::column_spec(study, c);
     result.longwave = solve_longwave(study, setup, result.column, spec.surface_emissivity_by_band);
     result.shortwave = solve_shortwave(sw_setup, result.column, spec.surface_albedo_by_band);
   } catch (const InputError& e) {
@@ -134,7 +135,7 @@ std::vector<atmosphere::Column> check_study(const io::Study& study) {
 
 std::vector<ColumnResult> compute_columns(const io::Study& study, const std::vector<atmosphere::Column>& columns,
                                           std::size_t threads) {
-  const io::Study flat = io::expand_sweeps(study).study;
+  const io::Study flat = io::prepare_columns(study).study;
   return compute_with(flat, prepare_longwave(flat), prepare_shortwave(flat), columns, threads);
 }
 

@@ -30,7 +30,7 @@ std::string run_hash(const io::Study& study, const io::Study& flat, const RunOpt
   std::uint64_t h = io::fnv1a(version());
   h = io::fnv1a(study.source_file, h);
   h = io::fnv1a(study.source_text, h);
-  h = io::fnv1a(fmt::format("|{}|{}|{}|", options.chunk_columns, options.deflate_level, flat.columns.size()), h);
+  h = io::fnv1a(fmt::format("|{}|{}|{}|", options.chunk_columns, options.deflate_level, io::column_count(flat)), h);
   const auto hash_values = [&h](const std::vector<double>& v) {
     h = io::fnv1a(std::string_view(reinterpret_cast<const char*>(v.data()), v.size() * sizeof(double)), h);
   };
@@ -117,9 +117,9 @@ RunOutcome run_study(const io::Study& study, const RunOptions& options) {
   const std::filesystem::path path = output_path(study, options);
   io::check_output_folder(path); // fail before the work, not after
   if (options.chunk_columns == 0) throw InternalError("RunOptions::chunk_columns must be at least 1");
-  const io::ExpandedStudy expanded = io::expand_sweeps(study);
+  const io::ExpandedStudy expanded = io::prepare_columns(study);
   const io::Study& flat = expanded.study;
-  const std::size_t total = flat.columns.size();
+  const std::size_t total = io::column_count(flat);
   if (total == 0) throw InputError(InputPlace{path.string(), "", {}, {}, {}, {}}, "nothing to write: the run has no columns");
   const LongwaveSetup setup = prepare_longwave(flat);
   const ShortwaveSetup sw_setup = prepare_shortwave(flat);

@@ -121,6 +121,12 @@ ResultFileWriter::ResultFileWriter(const std::filesystem::path& path, const R& s
       if (v.per_column) {
         std::vector<std::size_t> chunk = chunk_shape(m.lead_shape, v.values_per_column, storage.chunk_columns, m.table, v);
         var.setChunking(netCDF::NcVar::nc_CHUNKED, chunk);
+        // Blocks are written once, in order: a cache of two chunks per variable is enough, and keeps
+        // the library's memory independent of the number of columns (HDF5's default per-variable
+        // cache otherwise keeps written chunks, growing with the file up to its size limit).
+        std::size_t chunk_bytes = v.storage == Storage::f64 ? sizeof(double) : 1;
+        for (std::size_t n : chunk) chunk_bytes *= n;
+        var.setChunkCache(2 * chunk_bytes, 7, 1.0f);
         if (storage.deflate_level > 0) var.setCompression(true, true, std::clamp(storage.deflate_level, 1, 9));
       }
       if (v.fill_nan) var.setFill(true, std::numeric_limits<double>::quiet_NaN());

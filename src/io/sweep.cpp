@@ -1,5 +1,6 @@
 #include "bandstack/io/sweep.hpp"
 
+#include <algorithm>
 #include <memory>
 
 #include <fmt/format.h>
@@ -84,6 +85,40 @@ ExpandedStudy expand_profile_file(const Study& study) {
 }
 
 } // namespace
+
+std::size_t column_count(const Study& study) {
+  std::size_t n = study.columns.size();
+  for (const SweepAxis& sweep : study.sweeps) n *= sweep.values.size();
+  return n;
+}
+
+ColumnSpec column_spec(const Study& study, std::size_t i) {
+  std::size_t rest = i;
+  std::vector<std::size_t> index(study.sweeps.size());
+  for (std::size_t a = study.sweeps.size(); a-- > 0;) {
+    index[a] = rest % study.sweeps[a].values.size();
+    rest /= study.sweeps[a].values.size();
+  }
+  ColumnSpec spec = study.columns.at(rest);
+  for (std::size_t a = 0; a < study.sweeps.size(); ++a)
+    set_column_value(spec, study.sweeps[a].key, study.sweeps[a].values[index[a]]);
+  return spec;
+}
+
+ExpandedStudy prepare_columns(const Study& study) {
+  if (study.columns.size() == 1 && !study.columns.front().profile_file.empty()) return expand_profile_file(study);
+  // The axes and checks of the eager expansion, on one value per sweep at a time.
+  Study probe = study;
+  for (SweepAxis& sweep : probe.sweeps) sweep.values.resize(std::min<std::size_t>(sweep.values.size(), 1));
+  ExpandedStudy out;
+  out.axes = expand_sweeps(probe).axes;
+  for (std::size_t a = 0; a < study.sweeps.size(); ++a) {
+    out.axes[a + 1].size = study.sweeps[a].values.size();
+    out.axes[a + 1].values = study.sweeps[a].values;
+  }
+  out.study = study;
+  return out;
+}
 
 ExpandedStudy expand_sweeps(const Study& study) {
   if (study.columns.size() == 1 && !study.columns.front().profile_file.empty()) return expand_profile_file(study);

@@ -49,4 +49,14 @@ struct ExpandedStudy {
 };
 [[nodiscard]] ExpandedStudy expand_sweeps(const Study& study);
 
+// The same columns without holding one spec per column (memory independent of the sweep sizes):
+// a profile-file study is expanded as above; otherwise `study` keeps its own columns and sweeps and
+// column_spec builds each expanded column on demand. Checks what expand_sweeps checks, per base
+// column and sweep value.
+[[nodiscard]] ExpandedStudy prepare_columns(const Study& study);
+// Number of columns after expansion: columns x the sweeps' value counts.
+[[nodiscard]] std::size_t column_count(const Study& study);
+// Column i of the expansion (row-major: the study's columns outermost, then each sweep in order).
+[[nodiscard]] ColumnSpec column_spec(const Study& study, std::size_t i);
+
 } // namespace bandstack::io
