@@ -124,13 +124,20 @@ std::vector<ColumnResult> compute_with(const io::Study& study, const LongwaveSet
 
 } // namespace
 
-std::vector<atmosphere::Column> check_study(const io::Study& study) {
-  std::vector<atmosphere::Column> columns = build_columns(study);
-  const LongwaveSetup lw = prepare_longwave(study);
-  const ShortwaveSetup sw = prepare_shortwave(study);
-  check_band_properties(study, lw, sw);
-  (void)prepare_climate(study, lw, sw);
-  return columns;
+StudyCheck check_study(const io::Study& study) {
+  const io::Study flat = io::prepare_columns(study).study;
+  StudyCheck result;
+  result.column_count = io::column_count(flat);
+  // One column at a time, so that checking a large study takes little memory.
+  for (std::size_t i = 0; i < result.column_count; ++i) {
+    const atmosphere::Column column = build_column(flat, i);
+    if (i == 0) result.layer_count = column.layer_count();
+  }
+  const LongwaveSetup lw = prepare_longwave(flat);
+  const ShortwaveSetup sw = prepare_shortwave(flat);
+  check_band_properties(flat, lw, sw);
+  (void)prepare_climate(flat, lw, sw);
+  return result;
 }
 
 std::vector<ColumnResult> compute_columns(const io::Study& study, const std::vector<atmosphere::Column>& columns,

@@ -114,9 +114,9 @@ int dispatch(int argc, char** argv) {
   if (*run_cmd) return run(bandstack::io::load_study(o.study_path), o);
   if (*check) {
     const bandstack::io::Study study = bandstack::io::load_study(o.study_path);
-    const auto columns = bandstack::batch::check_study(study);
+    const bandstack::batch::StudyCheck checked = bandstack::batch::check_study(study);
     if (!o.quiet)
-      std::printf("%s: ok (%zu columns, %zu layers each)\n", o.study_path.c_str(), columns.size(), study.grid.layers);
+      std::printf("%s: ok (%zu columns, %zu layers each)\n", o.study_path.c_str(), checked.column_count, checked.layer_count);
     return 0;
   }
   return static_cast<int>(bandstack::ExitCode::bad_input);

@@ -34,9 +34,14 @@ struct RunOptions {
 [[nodiscard]] std::vector<atmosphere::Column> build_columns(const io::Study& study);
 
 // Everything a run would check before computing: builds and validates every column and loads the
-// band sets and absorber sources the study names (InputError / FileError on any problem). Returns
-// the columns. Used by `bandstack check`.
-[[nodiscard]] std::vector<atmosphere::Column> check_study(const io::Study& study);
+// band sets and absorber sources the study names, and checks the experiments against them
+// (InputError / FileError on any problem). Columns are built one at a time and dropped. Returns the
+// counts. Used by `bandstack check`.
+struct StudyCheck {
+  std::size_t column_count = 0;  // after expanding sweeps or reading the profile file
+  std::size_t layer_count = 0;   // of the first column (all share it)
+};
+[[nodiscard]] StudyCheck check_study(const io::Study& study);
 
 // Computes every column (`columns` from build_columns of the same study). Columns are independent and each result goes to its own slot, so the
 // results are bit-identical for any thread count.
