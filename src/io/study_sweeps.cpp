@@ -70,7 +70,7 @@ void read_sweeps(TomlReader& r, const toml::table& root, Study& study) {
       const auto n = static_cast<std::size_t>(*count);
       for (std::size_t k = 0; k < n; ++k) {
         const double f = n == 1 ? 0.0 : static_cast<double>(k) / static_cast<double>(n - 1);
-        axis.values.push_back(spacing == "log" ? std::exp(std::log(*from) + f * (std::log(*to) - std::log(*from)))
+        axis.values.push_back(spacing == "log" ? *from * std::pow(*to / *from, f)
                                                : (1.0 - f) * *from + f * *to);
       }
       axis.values.back() = n == 1 ? *from : *to; // the end point exactly as written

@@ -39,7 +39,7 @@ spacing = "log"
 )" + columns, "s.toml");
   ASSERT_EQ(s.sweeps.size(), 3u);
   EXPECT_EQ(s.sweeps[1].values, (std::vector<double>{0.1, 0.3, 0.5})); // (1-f) a + f b: the midpoint exactly
-  EXPECT_DOUBLE_EQ(s.sweeps[2].values[1], 1.0);                         // geometric midpoint of 0.25 and 4
+  EXPECT_EQ(s.sweeps[2].values[1], 1.0);                                // geometric midpoint of 0.25 and 4, exactly
   EXPECT_EQ(s.sweeps[2].values[2], 4.0);                                // the end point as written
   const ExpandedStudy e = expand_sweeps(s);
   ASSERT_EQ(e.study.columns.size(), 2u * 2 * 3 * 3);
@@ -56,6 +56,12 @@ spacing = "log"
   EXPECT_DOUBLE_EQ(c.settings.surface_albedo, 0.5);
   EXPECT_DOUBLE_EQ(c.settings.ozone_scale, 1.0);
   EXPECT_DOUBLE_EQ(*c.sun.cos_zenith, 0.7);
+}
+
+// Doublings of CO2 on a log range come out exact, so that users can select them by value.
+TEST(Sweep, LogRangeOfDoublingsIsExact) {
+  const Study s = parse_study("[[sweeps]]\nkey = \"co2_ppmv\"\nfrom = 140\nto = 2240\ncount = 5\nspacing = \"log\"\n" + columns, "s.toml");
+  EXPECT_EQ(s.sweeps[0].values, (std::vector<double>{140, 280, 560, 1120, 2240}));
 }
 
 TEST(Sweep, SunKeysReplaceEachOther) {
