@@ -33,12 +33,14 @@ struct ResultFileWriter::Impl {
 
 namespace {
 
-// Leading chunk sizes: about `columns` columns (fewer for wide variables, at most ~4 MiB per chunk),
+// Leading chunk sizes: about `columns` columns, but at least ~64 KiB per chunk (narrow variables
+// would otherwise make many tiny chunks whose index HDF5 keeps in memory) and at most ~4 MiB;
 // whole inner axes first.
 std::vector<std::size_t> chunk_shape(const std::vector<std::size_t>& lead, std::size_t values_per_column,
                                      std::size_t columns, const Table& table, const Variable& v) {
   const std::size_t max_columns = std::max<std::size_t>(1, (std::size_t{4} << 20) / (8 * values_per_column));
-  std::size_t remaining = std::clamp<std::size_t>(columns, 1, max_columns);
+  const std::size_t min_columns = std::max<std::size_t>(1, (std::size_t{64} << 10) / (8 * values_per_column));
+  std::size_t remaining = std::clamp<std::size_t>(std::max(columns, min_columns), 1, max_columns);
   std::vector<std::size_t> chunk(lead.size());
   for (std::size_t d = lead.size(); d-- > 0;) {
     chunk[d] = std::max<std::size_t>(1, std::min(lead[d], remaining));

@@ -107,10 +107,14 @@ ColumnSpec column_spec(const Study& study, std::size_t i) {
 
 ExpandedStudy prepare_columns(const Study& study) {
   if (study.columns.size() == 1 && !study.columns.front().profile_file.empty()) return expand_profile_file(study);
-  // The axes and checks of the eager expansion, on one value per sweep at a time.
-  Study probe = study;
-  for (SweepAxis& sweep : probe.sweeps) sweep.values.resize(std::min<std::size_t>(sweep.values.size(), 1));
+  // The checks of the eager expansion depend on which keys are swept, not on their values: one value
+  // per sweep is enough. The axes are built directly, without copying the study a second time.
   ExpandedStudy out;
+  Study probe;
+  probe.source_file = study.source_file;
+  probe.columns = study.columns;
+  for (const SweepAxis& sweep : study.sweeps)
+    probe.sweeps.push_back(SweepAxis{sweep.key, {sweep.values.empty() ? 0.0 : sweep.values.front()}});
   out.axes = expand_sweeps(probe).axes;
   for (std::size_t a = 0; a < study.sweeps.size(); ++a) {
     out.axes[a + 1].size = study.sweeps[a].values.size();
