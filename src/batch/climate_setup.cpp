@@ -154,6 +154,7 @@ void compute_climate(const ClimateSetup& setup, std::size_t c, const atmosphere:
   if (study.equilibrium) {
     settings = *study.equilibrium;
     settings.water = water_for(settings, spec);
+    if (spec.critical_lapse_rate_k_km) settings.convection.critical_lapse_rate_k_km = *spec.critical_lapse_rate_k_km;
     base.equilibrium = climate::solve_equilibrium(start, radiation, settings);
     base.column = base.equilibrium->column;
   }

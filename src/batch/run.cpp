@@ -37,6 +37,14 @@ atmosphere::Column build_column(const io::Study& study, std::size_t i) {
       column = atmosphere::make_column(spec.settings, study.grid, spec.name);
     }
     column.sun = sun_geometry(spec.sun);
+    if (spec.solar_constant_w_m2) {
+      // A swept solar constant scales the sunlight of this column against the study's own.
+      const double s0 = study.shortwave.solar_constant_w_m2;
+      if (!(s0 > 0.0))
+        throw InputError(InputPlace{study.source_file, "shortwave.solar_constant_w_m2", {}, {}, {}, {}},
+                         "sweeping solar_constant_w_m2 needs a study solar constant > 0");
+      column.sun.distance_factor *= *spec.solar_constant_w_m2 / s0;
+    }
     return column;
   } catch (const InputError& e) {
     throw InputError(InputPlace{study.source_file, fmt::format("columns[{}] \"{}\"", i, spec.name), {}, {},

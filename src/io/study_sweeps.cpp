@@ -38,6 +38,10 @@ void read_sweeps(TomlReader& r, const toml::table& root, Study& study) {
       continue;
     }
     if (!seen.insert(*key).second) r.problem(t.get("key")->source(), prefix + ".key", "\"" + *key + "\" is swept twice");
+    if (*key == "critical_lapse_rate_k_per_km" && !study.equilibrium)
+      r.problem(t.get("key")->source(), prefix + ".key", "critical_lapse_rate_k_per_km is swept, but the study has no [equilibrium]");
+    if (*key == "solar_constant_w_m2" && study.shortwave.method == ShortwaveMethod::none)
+      r.problem(t.get("key")->source(), prefix + ".key", "solar_constant_w_m2 is swept, but the shortwave method is \"none\"");
     axis.key = *key;
     const bool listed = t.contains("values");
     const bool ranged = t.contains("from") || t.contains("to") || t.contains("count");

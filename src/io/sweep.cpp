@@ -26,6 +26,9 @@ const std::vector<SweepKey>& sweep_keys() {
       {"latitude_deg", -90.0, 90.0, "degrees_north", "latitude of the Sun's position calculation"},
       {"day_of_year", 1.0, 366.0, "1", "day of the year of the Sun's position calculation"},
       {"local_solar_time_h", 0.0, 24.0, "hour", "local solar time of the Sun's position calculation"},
+      // Study-level settings, per column.
+      {"solar_constant_w_m2", 0.0, 1e5, "W m-2", "total solar irradiance at 1 au"},
+      {"critical_lapse_rate_k_per_km", 0.1, 30.0, "K km-1", "critical lapse rate of the convective adjustment"},
   };
   return keys;
 }
@@ -52,6 +55,8 @@ void set_column_value(ColumnSpec& spec, std::string_view key, double value) {
   else if (key == "latitude_deg") { sun.latitude_deg = value; sun.cos_zenith.reset(); }
   else if (key == "day_of_year") { sun.day_of_year = value; sun.cos_zenith.reset(); }
   else if (key == "local_solar_time_h") { sun.local_solar_time_h = value; sun.cos_zenith.reset(); }
+  else if (key == "solar_constant_w_m2") spec.solar_constant_w_m2 = value;
+  else if (key == "critical_lapse_rate_k_per_km") spec.critical_lapse_rate_k_km = value;
   else throw InputError(InputPlace::of("sweeps.key"), fmt::format("\"{}\" cannot be swept", key));
 }
 

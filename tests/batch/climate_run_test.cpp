@@ -118,3 +118,45 @@ TEST(ClimateRun, ExperimentsAreCheckedAgainstTheBandSets) {
 
 } // namespace
 } // namespace bandstack::batch
+
+namespace bandstack::batch {
+namespace {
+
+// Study-level settings swept per column: the solar constant scales the sunlight at the top exactly
+// (global mean: S/4, Kopp & Lean 2011 value as the study's own), and the critical lapse rate shapes
+// the convective region: T_i / T_j = (p_i / p_j)^(R_d Gamma / g) between convective layers
+// (hypsometric equation for a constant lapse rate; R_d = R / M_d with CODATA R and M_d of the
+// U.S. Standard Atmosphere 1976, standard gravity).
+TEST(ClimateRun, StudyLevelSettingsSweptPerColumn) {
+  const std::vector<ColumnResult> r = run(head + R"(
+[equilibrium]
+[[sweeps]]
+key = "solar_constant_w_m2"
+values = [1361, 1200]
+[[sweeps]]
+key = "critical_lapse_rate_k_per_km"
+values = [5.0, 8.0]
+)" + column_a);
+  ASSERT_EQ(r.size(), 4u);
+  const double gammas[] = {5.0, 8.0};
+  for (std::size_t i = 0; i < 4; ++i) {
+    const double s0 = i < 2 ? 1361.0 : 1200.0;
+    EXPECT_NEAR(r[i].shortwave.toa_incoming(), s0 / 4.0, 1e-9 * s0) << i;
+    ASSERT_TRUE(r[i].equilibrium);
+    const double exponent = 8.314462618 / 28.9644e-3 * gammas[i % 2] * 1e-3 / 9.80665;
+    const auto& conv = r[i].equilibrium->convective;
+    const auto& t = r[i].column.temperature_layer_k;
+    const auto& p = r[i].column.pressure_layer_pa;
+    const std::size_t n = t.size();
+    ASSERT_TRUE(conv[n - 1] && conv[n - 3]) << i;
+    EXPECT_NEAR(t[n - 3] / t[n - 1], std::pow(p[n - 3] / p[n - 1], exponent), 1e-9) << i;
+  }
+  // A weaker lapse rate (5 K/km) holds a warmer upper troposphere that radiates more: cooler surface
+  // for the same sunlight (Manabe & Wetherald 1967 sign of the lapse-rate effect).
+  EXPECT_LT(r[0].column.surface_temperature_k, r[1].column.surface_temperature_k);
+  // Less sunlight, colder surface.
+  EXPECT_LT(r[2].column.surface_temperature_k, r[0].column.surface_temperature_k);
+}
+
+} // namespace
+} // namespace bandstack::batch

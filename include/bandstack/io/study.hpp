@@ -39,6 +39,11 @@ struct ColumnSpec {
   // Set by io::expand_sweeps for a column read from a profile file: used instead of `settings`'
   // built-in profile (the sun and the per-band surface keys still come from this spec).
   std::shared_ptr<const atmosphere::Column> given_column;
+  // Per-column values of study-level settings, set only by [[sweeps]] (io/sweep.hpp): the total solar
+  // irradiance at 1 au (W m-2; replaces [shortwave] solar_constant_w_m2 for this column) and the
+  // critical lapse rate of [equilibrium] (K/km).
+  std::optional<double> solar_constant_w_m2;
+  std::optional<double> critical_lapse_rate_k_km;
   SunSpec sun;
   // Optional per-band surface properties; empty = the broadband value in every band. When given,
   // one value per band of the longwave (emissivity) or shortwave (albedo) band set.
