@@ -6,6 +6,7 @@
 
 #include "bandstack/atmosphere/sun.hpp"
 #include "bandstack/core/error.hpp"
+#include "bandstack/core/units.hpp"
 #include "bandstack/io/sweep.hpp"
 #include "batch/climate_setup.hpp"
 #include "batch/column_blocks.hpp"
@@ -25,6 +26,24 @@ atmosphere::SunGeometry sun_geometry(const io::SunSpec& sun) {
   return {0.5, 1.0, 0.5};
 }
 
+namespace {
+
+// Swept values that act on a column read from a profile file (the others act through the spec; the
+// parser refuses sweeps of the built-in profile's own keys with a profile file).
+void apply_swept_values(const io::ColumnSpec& spec, atmosphere::Column& column) {
+  const std::size_t n = column.layer_count();
+  for (const auto& [key, value] : spec.swept_values) {
+    if (key == "co2_ppmv") column.gas(Gas::co2).assign(n, units::ppmv_to_mole_fraction(value));
+    else if (key == "ch4_ppmv") column.gas(Gas::ch4).assign(n, units::ppmv_to_mole_fraction(value));
+    else if (key == "n2o_ppmv") column.gas(Gas::n2o).assign(n, units::ppmv_to_mole_fraction(value));
+    else if (key == "surface_emissivity") column.surface_emissivity = value;
+    else if (key == "surface_albedo") column.surface_albedo = value;
+    else if (key == "surface_temperature_k") column.surface_temperature_k = value;
+  }
+}
+
+} // namespace
+
 // Column i of the study's expansion (io::column_spec).
 atmosphere::Column build_column(const io::Study& study, std::size_t i) {
   const io::ColumnSpec spec = io::column_spec(study, i);
@@ -33,6 +52,7 @@ atmosphere::Column build_column(const io::Study& study, std::size_t i) {
     if (spec.given_column) {
       column = *spec.given_column; // from a profile file
       column.name = spec.name;
+      apply_swept_values(spec, column);
     } else {
       column = atmosphere::make_column(spec.settings, study.grid, spec.name);
     }

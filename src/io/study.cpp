@@ -212,8 +212,10 @@ Study parse_study(std::string_view text, const std::string& file_name) {
                                      [](const ColumnSpec& c) { return !c.profile_file.empty(); });
   if (from_file && study.columns.size() > 1)
     r.problem("a study with a profile_file column has only that column (the file's columns are the study's columns)");
-  if (from_file && !study.sweeps.empty())
-    r.problem("[[sweeps]] cannot be combined with a profile_file column yet");
+  if (from_file)
+    for (const SweepAxis& sweep : study.sweeps)
+      if (sweep.key == "surface_relative_humidity" || sweep.key == "stratospheric_h2o_ppmv" || sweep.key == "ozone_scale")
+        r.problem("[[sweeps]] key \"" + sweep.key + "\" belongs to the built-in profiles and cannot be swept with a profile_file column");
   r.throw_if_problems();
   return study;
 }

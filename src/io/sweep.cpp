@@ -40,6 +40,7 @@ const SweepKey* find_sweep_key(std::string_view key) {
 }
 
 void set_column_value(ColumnSpec& spec, std::string_view key, double value) {
+  spec.swept_values.emplace_back(std::string(key), value);
   atmosphere::ProfileSettings& s = spec.settings;
   SunSpec& sun = spec.sun;
   if (key == "surface_temperature_k") s.surface_temperature_k = value;
@@ -86,6 +87,14 @@ ExpandedStudy expand_profile_file(const Study& study) {
   for (const LeadingAxis& a : file.axes)
     out.axes.push_back(OutputAxis{a.name, a.size, a.values, {}, a.attributes});
   if (out.axes.empty()) out.axes.push_back(OutputAxis{"column", 1, {}, {spec.name}, {}});
+  // Sweeps cross the file's columns (built on demand by column_spec; study.sweeps is kept).
+  for (const SweepAxis& sweep : study.sweeps) {
+    const SweepKey* info = find_sweep_key(sweep.key);
+    if (!info) throw InputError(InputPlace{study.source_file, "sweeps.key", {}, {}, {}, {}},
+                                fmt::format("\"{}\" cannot be swept", sweep.key));
+    out.axes.push_back(OutputAxis{sweep.key, sweep.values.size(), sweep.values, {},
+                                  {{"units", std::string(info->units)}, {"long_name", std::string(info->long_name)}}});
+  }
   return out;
 }
 
@@ -130,7 +139,16 @@ ExpandedStudy prepare_columns(const Study& study) {
 }
 
 ExpandedStudy expand_sweeps(const Study& study) {
-  if (study.columns.size() == 1 && !study.columns.front().profile_file.empty()) return expand_profile_file(study);
+  if (study.columns.size() == 1 && !study.columns.front().profile_file.empty()) {
+    ExpandedStudy out = expand_profile_file(study);
+    std::vector<ColumnSpec> specs;
+    const std::size_t n = column_count(out.study);
+    specs.reserve(n);
+    for (std::size_t i = 0; i < n; ++i) specs.push_back(column_spec(out.study, i));
+    out.study.columns = std::move(specs);
+    out.study.sweeps.clear();
+    return out;
+  }
   ExpandedStudy out;
   out.study = study;
   out.study.sweeps.clear();

@@ -67,6 +67,7 @@ STUDY = """
 title = "Brannoch plateau profiles (invented)"
 [longwave]
 gauss_angles = 1
+{sweep}
 [[columns]]
 name = "brannoch"
 profile_file = "{file}"
@@ -77,11 +78,16 @@ file = "{out}"
 """
 
 
-def run(exe, workdir, name, si):
+SWEEP = """[[sweeps]]
+key = "co2_ppmv"
+values = [280, 560]"""
+
+
+def run(exe, workdir, name, si, sweep=False):
     write_file(os.path.join(workdir, name + ".nc"), si)
     study = os.path.join(workdir, name + ".toml")
     with open(study, "w") as f:
-        f.write(STUDY.format(file=name + ".nc", out=name + "_result.nc"))
+        f.write(STUDY.format(file=name + ".nc", out=name + "_result.nc", sweep=SWEEP if sweep else ""))
     subprocess.run([exe, "run", study, "--quiet"], check=True)
     return os.path.join(workdir, name + "_result.nc")
 
@@ -110,6 +116,11 @@ def main():
     check(bool(np.all((user.olr.values > 150) & (user.olr.values < 330))), f"OLR {user.olr.values}")
     # Warmer columns emit more (Stefan-Boltzmann sign): at each time, OLR falls from 10N to 60N.
     check(bool(np.all(np.diff(user.olr.values, axis=1) < 0)), "OLR falls poleward")
+    # A sweep crosses the file's columns: a new trailing dimension; more CO2, less OLR everywhere.
+    swept = xr.open_dataset(run(args.exe, args.workdir, "swept", si=False, sweep=True))
+    check(swept.olr.dims == ("time", "lat", "co2_ppmv"), f"swept olr dims {swept.olr.dims}")
+    check(bool(np.all(swept.olr.sel(co2_ppmv=560).values < swept.olr.sel(co2_ppmv=280).values)), "OLR falls with CO2")
+    check(np.allclose(swept.co2_mole_fraction.sel(co2_ppmv=560).values, 560e-6, rtol=1e-15), "CO2 set in every layer")
 
     for f in failures:
         print("FAIL:", f)

@@ -32,8 +32,8 @@ TEST(StudyProfileFile, ProblemsAreReported) {
   try {
     (void)parse_study(R"(
 [[sweeps]]
-key = "co2_ppmv"
-values = [280]
+key = "ozone_scale"
+values = [0.5]
 [[columns]]
 name = "field"
 profile_file = "p.nc"
@@ -52,7 +52,7 @@ profile = "tropical"
   for (const char* expected :
        {"'columns[0].profile': does not apply to a column read from a profile_file",
         "'columns[0].ozone_scale': does not apply", "'columns[0].variables.wind': unknown key",
-        "a study with a profile_file column has only that column", "[[sweeps]] cannot be combined with a profile_file column"})
+        "a study with a profile_file column has only that column", "[[sweeps]] key \"ozone_scale\" belongs to the built-in profiles and cannot be swept with a profile_file column"})
     EXPECT_NE(m.find(expected), std::string::npos) << "missing: " << expected << "\nin:\n" << m;
 }
 

@@ -5,6 +5,7 @@
 #include <optional>
 #include <string>
 #include <string_view>
+#include <utility>
 #include <vector>
 
 #include "bandstack/atmosphere/grid.hpp"
@@ -44,6 +45,8 @@ struct ColumnSpec {
   // critical lapse rate of [equilibrium] (K/km).
   std::optional<double> solar_constant_w_m2;
   std::optional<double> critical_lapse_rate_k_km;
+  // The (key, value) pairs sweeps set on this spec, in order; applied to a given_column too.
+  std::vector<std::pair<std::string, double>> swept_values;
   SunSpec sun;
   // Optional per-band surface properties; empty = the broadband value in every band. When given,
   // one value per band of the longwave (emissivity) or shortwave (albedo) band set.
