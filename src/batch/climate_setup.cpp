@@ -119,7 +119,7 @@ std::string describe_equilibrium(const io::Study& study) {
                                 : "water at fixed mixing ratio";
   const std::string surface = s.surface == climate::SurfaceTreatment::energy_balance ? "surface temperature from the energy balance"
                                                                                       : "surface temperature fixed";
-  return fmt::format("{}; {}; {}; Newton's method (finite-difference Jacobian with Broyden updates){}; converged at "
+  return fmt::format("{}; {}; {}; Newton's method (grouped finite-difference Jacobian with Broyden updates){}; converged at "
                      "max |heating| <= {} K/day in radiative layers and |net flux| <= {} W m-2",
                      convection, water, surface, s.time_marching_fallback ? " with time marching as fallback" : "",
                      s.heating_tolerance_k_day, s.flux_tolerance_w_m2);

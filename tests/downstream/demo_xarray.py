@@ -3,14 +3,15 @@
 Checks names, units and CF attributes of the variables (naming.md), that the upward longwave flux at
 the top level equals `olr`, that the file decodes as CF, and that 1 and 2 threads give identical numbers.
 """
-import argparse
 import os
-import shutil
 import subprocess
 import sys
 
 import numpy as np
 import xarray as xr
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "support"))
+from checks import Checks, bandstack, parse_args  # noqa: E402
 
 EXPECTED = {
     # name: (units, CF standard_name or None, dimensions)
@@ -38,30 +39,17 @@ EXPECTED = {
     "toa_net_flux": ("W m-2", None, ("column",)),
 }
 
-failures = []
-checks = [0]
-
-
-def check(condition, message):
-    checks[0] += 1
-    if not condition:
-        failures.append(message)
-    return condition
+check = Checks("demo_xarray")
 
 
 def run_demo(exe, out, threads):
     os.makedirs(out, exist_ok=True)
-    subprocess.run([exe, "demo", "--quiet", "--threads", str(threads), "--out", out], check=True)
+    bandstack(exe, "demo", "--threads", str(threads), "--out", out)
     return os.path.join(out, "tarrow_sound_demo.nc")
 
 
 def main():
-    parser = argparse.ArgumentParser()
-    parser.add_argument("--exe", required=True)
-    parser.add_argument("--tools", required=False)
-    parser.add_argument("--workdir", required=True)
-    args = parser.parse_args()
-    shutil.rmtree(args.workdir, ignore_errors=True)
+    args = parse_args()
 
     path1 = run_demo(args.exe, os.path.join(args.workdir, "t1"), 1)
     path2 = run_demo(args.exe, os.path.join(args.workdir, "t2"), 2)
@@ -125,19 +113,13 @@ def main():
     check("default_sw" in ds.attrs.get("shortwave_method", ""), "shortwave_method names the band set")
 
     # Bit-identical numbers for 1 and 2 threads.
-    ds2 = xr.open_dataset(path2)
-    for name in ds.data_vars:
-        if np.issubdtype(ds[name].dtype, np.number):
-            check(np.array_equal(ds[name].values, ds2[name].values), f"{name} differs between 1 and 2 threads")
+    check.identical(ds, xr.open_dataset(path2), "between 1 and 2 threads")
 
     # ncdump (netcdf-bin) reads the header.
     header = subprocess.run(["ncdump", "-h", path1], check=True, capture_output=True, text=True).stdout
     check("lw_flux_up(column, level)" in header, "ncdump -h shows lw_flux_up(column, level)")
 
-    for f in failures:
-        print("FAIL:", f)
-    print(f"demo_xarray: {checks[0] - len(failures)} passed, {len(failures)} failed")
-    return 1 if failures else 0
+    return check.report()
 
 
 if __name__ == "__main__":

@@ -6,39 +6,26 @@ the Stefan-Boltzmann constant from scipy (CODATA), the hypsometric 6.5 K/km prof
 region, linearity of the shortwave in the sunlight, the ordering of Kiehl & Trenberth (1997), and
 1 vs 2 threads giving identical numbers.
 """
-import argparse
 import os
-import shutil
-import subprocess
+import sys
 
 import numpy as np
 import scipy.constants as sc
 import xarray as xr
 
-failures = []
-checks = [0]
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "support"))
+from checks import Checks, parse_args, run_study  # noqa: E402
 
-
-def check(condition, message):
-    checks[0] += 1
-    if not condition:
-        failures.append(message)
-    return bool(condition)
+check = Checks("equilibrium_xarray")
 
 
 def run(exe, study, out, threads):
-    os.makedirs(out, exist_ok=True)
-    subprocess.run([exe, "run", study, "--quiet", "--threads", str(threads), "--out", out], check=True)
+    run_study(exe, study, out, threads)
     return os.path.join(out, "equilibrium_demo.nc")
 
 
 def main():
-    parser = argparse.ArgumentParser()
-    parser.add_argument("--exe", required=True)
-    parser.add_argument("--tools", required=False)
-    parser.add_argument("--workdir", required=True)
-    args = parser.parse_args()
-    shutil.rmtree(args.workdir, ignore_errors=True)
+    args = parse_args()
     study = os.path.join(os.path.dirname(os.path.abspath(__file__)), "..", "..", "examples", "equilibrium_demo.toml")
     path1 = run(args.exe, study, os.path.join(args.workdir, "t1"), 1)
     path2 = run(args.exe, study, os.path.join(args.workdir, "t2"), 2)
@@ -122,15 +109,8 @@ def main():
           f"feedback residual {ds.feedback_residual.values[:, e2x]}")
 
     # Bit-identical numbers for 1 and 2 threads.
-    ds2 = xr.open_dataset(path2)
-    for name in ds.data_vars:
-        if np.issubdtype(ds[name].dtype, np.number):
-            check(np.array_equal(ds[name].values, ds2[name].values, equal_nan=True), f"{name} differs between 1 and 2 threads")
-
-    for f in failures:
-        print("FAIL:", f)
-    print(f"equilibrium_xarray: {checks[0] - len(failures)} passed, {len(failures)} failed")
-    return 1 if failures else 0
+    check.identical(ds, xr.open_dataset(path2), "between 1 and 2 threads")
+    return check.report()
 
 
 if __name__ == "__main__":

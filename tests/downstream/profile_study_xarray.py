@@ -7,24 +7,17 @@ xarray decodes the time coordinate back to the same dates (CF time units and cal
 the same profiles in SI units and top-first order give the same results (unit conversion and
 ordering), and that the OLR is Earth-like and falls poleward.
 """
-import argparse
 import os
-import shutil
-import subprocess
+import sys
 
 import numpy as np
 import pandas as pd
 import xarray as xr
 
-failures = []
-checks = [0]
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "support"))
+from checks import Checks, parse_args, run_study  # noqa: E402
 
-
-def check(condition, message):
-    checks[0] += 1
-    if not condition:
-        failures.append(message)
-    return bool(condition)
+check = Checks("profile_study_xarray")
 
 
 def profiles():
@@ -88,18 +81,12 @@ def run(exe, workdir, name, si, sweep=False):
     study = os.path.join(workdir, name + ".toml")
     with open(study, "w") as f:
         f.write(STUDY.format(file=name + ".nc", out=name + "_result.nc", sweep=SWEEP if sweep else ""))
-    subprocess.run([exe, "run", study, "--quiet"], check=True)
+    run_study(exe, study, workdir)
     return os.path.join(workdir, name + "_result.nc")
 
 
 def main():
-    parser = argparse.ArgumentParser()
-    parser.add_argument("--exe", required=True)
-    parser.add_argument("--tools", required=False)
-    parser.add_argument("--workdir", required=True)
-    args = parser.parse_args()
-    shutil.rmtree(args.workdir, ignore_errors=True)
-    os.makedirs(args.workdir)
+    args = parse_args()
     user = xr.open_dataset(run(args.exe, args.workdir, "user_units", si=False))
     si = xr.open_dataset(run(args.exe, args.workdir, "si_units", si=True))
 
@@ -122,10 +109,7 @@ def main():
     check(bool(np.all(swept.olr.sel(co2_ppmv=560).values < swept.olr.sel(co2_ppmv=280).values)), "OLR falls with CO2")
     check(np.allclose(swept.co2_mole_fraction.sel(co2_ppmv=560).values, 560e-6, rtol=1e-15), "CO2 set in every layer")
 
-    for f in failures:
-        print("FAIL:", f)
-    print(f"profile_study_xarray: {checks[0] - len(failures)} passed, {len(failures)} failed")
-    return 1 if failures else 0
+    return check.report()
 
 
 if __name__ == "__main__":

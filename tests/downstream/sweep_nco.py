@@ -6,13 +6,15 @@ coordinate value in xarray and in ncks (hyperslab by value), that more CO2 lower
 surface lowers the absorbed sunlight (signs of the greenhouse and albedo effects), and that 1 and 2
 threads give identical numbers.
 """
-import argparse
 import os
-import shutil
 import subprocess
+import sys
 
 import numpy as np
 import xarray as xr
+
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "support"))
+from checks import Checks, parse_args, run_study  # noqa: E402
 
 STUDY = """
 title = "sweep check (invented scenario)"
@@ -40,31 +42,16 @@ profile = "tropical"
 file = "sweep.nc"
 """
 
-failures = []
-checks = [0]
-
-
-def check(condition, message):
-    checks[0] += 1
-    if not condition:
-        failures.append(message)
-    return bool(condition)
+check = Checks("sweep_nco")
 
 
 def run(exe, study, out, threads):
-    os.makedirs(out, exist_ok=True)
-    subprocess.run([exe, "run", study, "--quiet", "--threads", str(threads), "--out", out], check=True)
+    run_study(exe, study, out, threads)
     return os.path.join(out, "sweep.nc")
 
 
 def main():
-    parser = argparse.ArgumentParser()
-    parser.add_argument("--exe", required=True)
-    parser.add_argument("--tools", required=False)
-    parser.add_argument("--workdir", required=True)
-    args = parser.parse_args()
-    shutil.rmtree(args.workdir, ignore_errors=True)
-    os.makedirs(args.workdir)
+    args = parse_args()
     study = os.path.join(args.workdir, "sweep.toml")
     with open(study, "w") as f:
         f.write(STUDY)
@@ -97,15 +84,8 @@ def main():
         values = [float(v) for v in text.replace("\n", " ").split(",") if v.strip()]
     check(len(values) == 2 and np.allclose(values, one.values, rtol=1e-12), f"ncks values {values} vs {one.values}")
 
-    ds2 = xr.open_dataset(path2)
-    for name in ds.data_vars:
-        if np.issubdtype(ds[name].dtype, np.number):
-            check(np.array_equal(ds[name].values, ds2[name].values), f"{name} differs between 1 and 2 threads")
-
-    for f in failures:
-        print("FAIL:", f)
-    print(f"sweep_nco: {checks[0] - len(failures)} passed, {len(failures)} failed")
-    return 1 if failures else 0
+    check.identical(ds, xr.open_dataset(path2), "between 1 and 2 threads")
+    return check.report()
 
 
 if __name__ == "__main__":
