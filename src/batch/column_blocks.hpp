@@ -2,17 +2,28 @@
 // Private to batch: the pieces of a run shared by compute_columns (all at once) and run_study
 // (block by block).
 #include <cstddef>
+#include <optional>
 
 #include "bandstack/batch/column_result.hpp"
 #include "bandstack/io/study.hpp"
+#include "bandstack/io/sweep.hpp"
 #include "batch/climate_setup.hpp"
 #include "batch/longwave_setup.hpp"
 #include "batch/shortwave_setup.hpp"
 
 namespace bandstack::batch {
 
-// Column i of the study's expansion (io::column_spec), with its Sun; InputError names it.
-[[nodiscard]] atmosphere::Column build_column(const io::Study& study, std::size_t i);
+// Column i of the study's expansion (io::column_spec), with its Sun; InputError names it. A column
+// of a profile file is built from `file_column` (its column in the file) unless the spec holds it,
+// with the Sun `file_sun` when the study takes the Sun from the file.
+[[nodiscard]] atmosphere::Column build_column(const io::Study& study, std::size_t i,
+                                              const atmosphere::Column* file_column = nullptr,
+                                              const std::optional<io::SunSpec>& file_sun = std::nullopt);
+
+// Columns [first, first + count) of a prepare_columns result, built in parallel (in the caller's
+// task arena) after reading the profile-file columns they use (serially, one block of the file).
+[[nodiscard]] std::vector<atmosphere::Column> build_block(const io::ExpandedStudy& expanded, std::size_t first,
+                                                          std::size_t count);
 
 // Per-band surface properties must match the band sets the study uses (InputError otherwise).
 void check_band_properties(const io::Study& study, const LongwaveSetup& lw, const ShortwaveSetup& sw);

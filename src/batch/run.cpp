@@ -45,18 +45,21 @@ void apply_swept_values(const io::ColumnSpec& spec, atmosphere::Column& column) 
 } // namespace
 
 // Column i of the study's expansion (io::column_spec).
-atmosphere::Column build_column(const io::Study& study, std::size_t i) {
+atmosphere::Column build_column(const io::Study& study, std::size_t i, const atmosphere::Column* file_column,
+                                const std::optional<io::SunSpec>& file_sun) {
   const io::ColumnSpec spec = io::column_spec(study, i);
   try {
     atmosphere::Column column;
-    if (spec.given_column) {
-      column = *spec.given_column; // from a profile file
+    if (spec.given_column || spec.profile_column) {
+      if (!spec.given_column && !file_column) throw InternalError(fmt::format("column {}: its profile was not read", i));
+      column = spec.given_column ? *spec.given_column : *file_column; // from a profile file
       column.name = spec.name;
       apply_swept_values(spec, column);
     } else {
       column = atmosphere::make_column(spec.settings, study.grid, spec.name);
     }
-    column.sun = sun_geometry(spec.sun);
+    if (spec.sun.from_file && !file_sun) throw InternalError(fmt::format("column {}: its Sun was not read", i));
+    column.sun = sun_geometry(spec.sun.from_file ? *file_sun : spec.sun);
     if (spec.solar_constant_w_m2) {
       // A swept solar constant scales the sunlight of this column against the study's own.
       const double s0 = study.shortwave.solar_constant_w_m2;
@@ -73,21 +76,22 @@ atmosphere::Column build_column(const io::Study& study, std::size_t i) {
   }
 }
 
-namespace {
-
-// Every column of the study's expansion.
-std::vector<atmosphere::Column> build_flat_columns(const io::Study& study) {
-  std::vector<atmosphere::Column> columns;
-  const std::size_t n = io::column_count(study);
-  columns.reserve(n);
-  for (std::size_t i = 0; i < n; ++i) columns.push_back(build_column(study, i));
+std::vector<atmosphere::Column> build_block(const io::ExpandedStudy& expanded, std::size_t first, std::size_t count) {
+  const std::vector<atmosphere::Column> file_columns = io::read_profile_columns(expanded, first, count);
+  const std::size_t file_first = file_columns.empty() ? 0 : io::file_column_of(expanded.study, first);
+  std::vector<atmosphere::Column> columns(count);
+  tbb::parallel_for(std::size_t{0}, count, [&](std::size_t k) {
+    const std::size_t i = first + k;
+    const std::size_t f = io::file_column_of(expanded.study, i);
+    const atmosphere::Column* file_column = file_columns.empty() ? nullptr : &file_columns.at(f - file_first);
+    columns[k] = build_column(expanded.study, i, file_column, io::file_sun(expanded, f));
+  });
   return columns;
 }
 
-} // namespace
-
 std::vector<atmosphere::Column> build_columns(const io::Study& study) {
-  return build_flat_columns(io::prepare_columns(study).study);
+  const io::ExpandedStudy expanded = io::prepare_columns(study);
+  return build_block(expanded, 0, io::column_count(expanded.study));
 }
 
 // Per-band surface properties must match the band sets the study uses.
@@ -153,13 +157,16 @@ std::vector<ColumnResult> compute_with(const io::Study& study, const LongwaveSet
 } // namespace
 
 StudyCheck check_study(const io::Study& study) {
-  const io::Study flat = io::prepare_columns(study).study;
+  const io::ExpandedStudy expanded = io::prepare_columns(study);
+  const io::Study& flat = expanded.study;
   StudyCheck result;
   result.column_count = io::column_count(flat);
-  // One column at a time, so that checking a large study takes little memory.
-  for (std::size_t i = 0; i < result.column_count; ++i) {
-    const atmosphere::Column column = build_column(flat, i);
-    if (i == 0) result.layer_count = column.layer_count();
+  // A block of columns at a time, so that checking a large study takes little memory.
+  constexpr std::size_t block = 256;
+  for (std::size_t first = 0; first < result.column_count; first += block) {
+    const std::vector<atmosphere::Column> columns =
+        build_block(expanded, first, std::min(block, result.column_count - first));
+    if (first == 0) result.layer_count = columns.front().layer_count();
   }
   const LongwaveSetup lw = prepare_longwave(flat);
   const ShortwaveSetup sw = prepare_shortwave(flat);

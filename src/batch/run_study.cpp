@@ -25,29 +25,19 @@ namespace bandstack::batch {
 namespace {
 
 // Hash of everything that decides the file's contents: program version, study (text, path, and the
-// columns read from profile files), block size and deflate level. Thread count is not part of it.
-std::string run_hash(const io::Study& study, const io::Study& flat, const RunOptions& options) {
+// bytes of its profile file), block size and deflate level. Thread count is not part of it.
+std::string run_hash(const io::Study& study, const io::ExpandedStudy& expanded, const RunOptions& options) {
   std::uint64_t h = io::fnv1a(version());
   h = io::fnv1a(study.source_file, h);
   h = io::fnv1a(study.source_text, h);
-  h = io::fnv1a(fmt::format("|{}|{}|{}|", options.chunk_columns, options.deflate_level, io::column_count(flat)), h);
-  const auto hash_values = [&h](const std::vector<double>& v) {
-    h = io::fnv1a(std::string_view(reinterpret_cast<const char*>(v.data()), v.size() * sizeof(double)), h);
-  };
-  for (const io::ColumnSpec& spec : flat.columns)
-    if (spec.given_column) {
-      const atmosphere::Column& c = *spec.given_column;
-      hash_values(c.pressure_level_pa);
-      hash_values(c.temperature_level_k);
-      for (const auto& x : c.mole_fraction) hash_values(x);
-      hash_values({c.surface_temperature_k, c.surface_emissivity, c.surface_albedo});
-    }
+  h = io::fnv1a(fmt::format("|{}|{}|{}|", options.chunk_columns, options.deflate_level, io::column_count(expanded.study)), h);
+  if (expanded.profile) h = io::fnv1a(fmt::format("profile {:016x}", expanded.profile->content_hash()), h);
   return fmt::format("{:016x}", h);
 }
 
 // Everything fixed for the whole run.
 struct Plan {
-  const io::Study& flat;
+  const io::ExpandedStudy& expanded;
   const LongwaveSetup& longwave;
   const ShortwaveSetup& shortwave;
   const ClimateSetup& climate;
@@ -59,9 +49,9 @@ std::vector<ColumnResult> compute_block(const Plan& plan, std::size_t first, std
                                         std::atomic<std::size_t>& done) {
   std::vector<ColumnResult> results(count);
   const auto work = [&] {
+    const std::vector<atmosphere::Column> columns = build_block(plan.expanded, first, count);
     tbb::parallel_for(std::size_t{0}, count, [&](std::size_t i) {
-      const std::size_t c = first + i;
-      compute_one(plan.flat, plan.longwave, plan.shortwave, plan.climate, c, build_column(plan.flat, c), results[i]);
+      compute_one(plan.expanded.study, plan.longwave, plan.shortwave, plan.climate, first + i, columns[i], results[i]);
       progress.update(done.fetch_add(1) + 1);
     });
   };
@@ -126,8 +116,8 @@ RunOutcome run_study(const io::Study& study, const RunOptions& options) {
   check_band_properties(flat, setup, sw_setup);
   const ClimateSetup climate_setup = prepare_climate(flat, setup, sw_setup);
   const io::RunInfo info = run_info(study, setup, sw_setup);
-  const Plan plan{flat, setup, sw_setup, climate_setup, options.threads};
-  const std::string hash = run_hash(study, flat, options);
+  const Plan plan{expanded, setup, sw_setup, climate_setup, options.threads};
+  const std::string hash = run_hash(study, expanded, options);
 
   RunOutcome outcome;
   outcome.output_file = path;

@@ -60,7 +60,8 @@ std::vector<std::vector<std::size_t>> allowed_shapes(Quantity q, const Layout& l
   }
 }
 
-std::vector<std::size_t> strides(const NetcdfFile& nc, Quantity q, const Source& source, const Layout& layout) {
+// The variable's dimensions as positions into layout.dims: one of the allowed shapes.
+std::vector<std::size_t> matching_shape(const NetcdfFile& nc, Quantity q, const Source& source, const Layout& layout) {
   const std::vector<int> dims = nc.dimensions(source.varid);
   std::string expected;
   std::vector<std::vector<int>> tried;
@@ -68,15 +69,7 @@ std::vector<std::size_t> strides(const NetcdfFile& nc, Quantity q, const Source&
     std::vector<int> want;
     for (std::size_t j : shape)
       want.push_back(layout.dims[j]);
-    if (dims == want) {
-      std::vector<std::size_t> stride(layout.dims.size(), 0);
-      std::size_t s = 1;
-      for (std::size_t k = shape.size(); k-- > 0;) {
-        stride[shape[k]] = s;
-        s *= nc.dimension_size(layout.dims[shape[k]]);
-      }
-      return stride;
-    }
+    if (dims == want) return shape;
     if (std::find(tried.begin(), tried.end(), want) != tried.end())
       continue; // e.g. () twice without leading dimensions
     tried.push_back(want);
@@ -116,13 +109,14 @@ double amount_kind(const NetcdfFile& nc, Quantity q, const Source& source, const
 
 // Converts the values to SI (water to mole fraction) and checks their range; messages give the value
 // as the file has it.
-void convert_values(const NetcdfFile& nc, Quantity q, const UnitConversion& conversion, Field& field) {
+void convert_values(const NetcdfFile& nc, Quantity q, const UnitConversion& conversion, const std::vector<std::size_t>& start,
+                    const std::vector<std::size_t>& count, Field& field) {
   for (std::size_t i = 0; i < field.values.size(); ++i) {
     double& v = field.values[i];
     const double in_file = v;
     const auto bad = [&](const char* rule) {
       fail(nc, field.source,
-           fmt::format("value {} {} at {}: {}", in_file, field.units, nc.describe_index(field.source.varid, i), rule));
+           fmt::format("value {} {} at {}: {}", in_file, field.units, nc.describe_index(field.source.varid, i, start, count), rule));
     };
     v = conversion.apply(v);
     if (!is_gas(q)) {
@@ -144,15 +138,17 @@ void convert_values(const NetcdfFile& nc, Quantity q, const UnitConversion& conv
 
 std::size_t Field::column_offset(const Layout& layout, const std::vector<std::size_t>& index) const {
   std::size_t offset = 0;
-  for (std::size_t j = 0; j < layout.leading.size(); ++j)
-    offset += index[j] * stride[layout.leading[j]];
+  for (std::size_t j = 0; j < layout.leading.size(); ++j) {
+    const std::size_t d = layout.leading[j];
+    if (stride[d] != 0) offset += (index[j] - origin[d]) * stride[d];
+  }
   return offset;
 }
 
-Field read_field(const NetcdfFile& nc, Quantity q, const Source& source, const Layout& layout) {
-  Field field;
-  field.source = source;
-  field.stride = strides(nc, q, source, layout);
+FieldPlan plan_field(const NetcdfFile& nc, Quantity q, const Source& source, const Layout& layout) {
+  FieldPlan plan;
+  plan.source = source;
+  plan.shape = matching_shape(nc, q, source, layout);
 
   const bool pressure = q == Quantity::pressure || q == Quantity::surface_pressure;
   const bool temperature = q == Quantity::temperature || q == Quantity::surface_temperature;
@@ -161,24 +157,43 @@ Field read_field(const NetcdfFile& nc, Quantity q, const Source& source, const L
                                        : accepted_amount_units;
   const auto units = nc.text_attribute(source.varid, "units");
   if (!units) fail(nc, source, fmt::format("missing 'units' attribute (accepted: {})", accepted));
-  field.units = *units;
-  UnitConversion conversion;
+  plan.units = *units;
   if (pressure || temperature) {
     const auto c = pressure ? pressure_units(*units) : temperature_units(*units);
     if (!c)
       fail(nc, source,
            fmt::format("units \"{}\" not accepted for {} (accepted: {})", *units, quantity_name(q), accepted));
-    conversion = *c;
+    plan.conversion = *c;
   } else {
-    conversion.factor = amount_kind(nc, q, source, *units, field.kind);
+    plan.conversion.factor = amount_kind(nc, q, source, *units, plan.kind);
   }
+  return plan;
+}
 
-  field.values = nc.read_values(source.varid);
-  convert_values(nc, q, conversion, field);
+Field read_field(const NetcdfFile& nc, Quantity q, const FieldPlan& plan, const Layout& layout, const Hyperslab& box) {
+  Field field;
+  field.source = plan.source;
+  field.units = plan.units;
+  field.kind = plan.kind;
+  field.stride.assign(layout.dims.size(), 0);
+  field.origin.assign(layout.dims.size(), 0);
+  std::vector<std::size_t> start, count;
+  for (std::size_t d : plan.shape) {
+    start.push_back(box.start[d]);
+    count.push_back(box.count[d]);
+    field.origin[d] = box.start[d];
+  }
+  std::size_t s = 1;
+  for (std::size_t k = plan.shape.size(); k-- > 0;) {
+    field.stride[plan.shape[k]] = s;
+    s *= count[k];
+  }
+  field.values = nc.read_values(plan.source.varid, start, count);
+  convert_values(nc, q, plan.conversion, start, count, field);
   return field;
 }
 
-std::string describe_use(Quantity q, const Field& field) {
+std::string describe_use(Quantity q, const FieldPlan& field) {
   if (field.kind == AmountKind::none)
     return fmt::format("{} <- {} ({})", quantity_name(q), field.source.name, field.units);
   return fmt::format("{} <- {} ({}, {})", quantity_name(q), field.source.name, field.units, kind_text(field.kind));

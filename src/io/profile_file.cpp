@@ -8,8 +8,11 @@
 #include "io/profile_netcdf.hpp"
 #include "io/profile_sources.hpp"
 
+#include "bandstack/io/resumable_output.hpp"
+
 #include <array>
 #include <fmt/format.h>
+#include <fstream>
 #include <optional>
 
 namespace bandstack::io {
@@ -123,47 +126,127 @@ detail::ColumnLayers column_layers(const NetcdfFile& nc, const Layout& layout, c
 
 } // namespace
 
-ProfileFile read_profile_file(const std::filesystem::path& path, const ProfileVariables& variables,
-                              const ProfileDefaults& defaults) {
+struct ProfileReader::Impl {
+  std::filesystem::path path;
+  NetcdfFile nc;
+  ProfileDefaults defaults;
+  Layout layout;
+  std::array<std::optional<detail::FieldPlan>, detail::quantity_count> plans;
+  std::vector<LeadingAxis> axes;
+  std::vector<std::string> used_variables;
+  std::string surface_pressure_item;
+
+  Impl(const std::filesystem::path& p, const ProfileDefaults& d) : path(p), nc(p.string()), defaults(d) {}
+};
+
+namespace {
+
+std::unique_ptr<ProfileReader::Impl> open_reader(const std::filesystem::path& path, const ProfileVariables& variables,
+                                                 const ProfileDefaults& defaults) {
   const std::string file = path.string();
   std::error_code ec;
   if (!std::filesystem::exists(path, ec)) throw FileError(file, "no such profile file");
   if (std::filesystem::is_directory(path, ec)) throw FileError(file, "is a folder, not a profile file");
-  const NetcdfFile nc(file);
-
+  auto impl = std::make_unique<ProfileReader::Impl>(path, defaults);
+  const NetcdfFile& nc = impl->nc;
   const auto sources = detail::find_sources(nc, variables);
   const auto& pressure = sources[static_cast<std::size_t>(Quantity::pressure)];
   const auto& temperature = sources[static_cast<std::size_t>(Quantity::temperature)];
   BANDSTACK_ASSERT(pressure && temperature);
-  const Layout layout = detail::find_layout(nc, *pressure, *temperature, variables.vertical_dimension);
-
-  ProfileFile result;
-  Fields fields;
+  impl->layout = detail::find_layout(nc, *pressure, *temperature, variables.vertical_dimension);
   for (std::size_t i = 0; i < detail::quantity_count; ++i) {
     if (!sources[i]) continue;
     const auto q = static_cast<Quantity>(i);
-    fields[i] = detail::read_field(nc, q, *sources[i], layout);
-    result.used_variables.push_back(detail::describe_use(q, *fields[i]));
+    impl->plans[i] = detail::plan_field(nc, q, *sources[i], impl->layout);
+    impl->used_variables.push_back(detail::describe_use(q, *impl->plans[i]));
   }
-  result.axes = leading_axes(nc, layout);
-
+  impl->axes = leading_axes(nc, impl->layout);
   const auto& surface_pressure = sources[static_cast<std::size_t>(Quantity::surface_pressure)];
-  const std::string surface_pressure_item = surface_pressure ? surface_pressure->name : "surface_pressure";
-  result.columns.reserve(layout.column_count);
-  Index leading(layout.leading.size(), 0);
-  for (std::size_t c = 0; c < layout.column_count; ++c) {
-    InputPlace where;
-    where.file = file;
-    where.column_index = static_cast<long>(c);
-    atmosphere::Column column = detail::make_column(column_layers(nc, layout, fields, defaults, leading, c), defaults,
-                                                    where, surface_pressure_item);
-    atmosphere::validate(column, where);
-    result.columns.push_back(std::move(column));
-    for (std::size_t j = leading.size(); j-- > 0;) { // row-major: the last leading dimension varies fastest
-      if (++leading[j] < nc.dimension_size(layout.dims[layout.leading[j]])) break;
-      leading[j] = 0;
+  impl->surface_pressure_item = surface_pressure ? surface_pressure->name : "surface_pressure";
+  return impl;
+}
+
+} // namespace
+
+ProfileReader::ProfileReader(const std::filesystem::path& path, const ProfileVariables& variables,
+                             const ProfileDefaults& defaults)
+    : impl_(open_reader(path, variables, defaults)) {}
+ProfileReader::~ProfileReader() = default;
+ProfileReader::ProfileReader(ProfileReader&&) noexcept = default;
+ProfileReader& ProfileReader::operator=(ProfileReader&&) noexcept = default;
+
+const std::filesystem::path& ProfileReader::path() const noexcept { return impl_->path; }
+std::size_t ProfileReader::column_count() const noexcept { return impl_->layout.column_count; }
+std::size_t ProfileReader::layer_count() const noexcept { return impl_->layout.vertical_size; }
+const std::vector<LeadingAxis>& ProfileReader::axes() const noexcept { return impl_->axes; }
+const std::vector<std::string>& ProfileReader::used_variables() const noexcept { return impl_->used_variables; }
+
+std::vector<atmosphere::Column> ProfileReader::read(std::size_t first, std::size_t count) const {
+  const Impl& r = *impl_;
+  const Layout& layout = r.layout;
+  std::vector<std::size_t> leading_shape;
+  for (std::size_t j : layout.leading)
+    leading_shape.push_back(r.nc.dimension_size(layout.dims[j]));
+  std::vector<atmosphere::Column> columns;
+  if (count == 0) return columns;
+  columns.reserve(count);
+  std::size_t c = first;
+  // Each slab is a box of the leading dimensions: its fields are read, then its columns built in
+  // row-major order (the order of the flat range).
+  for (const detail::Hyperslab& slab : detail::flat_range_slabs(leading_shape, first, count)) {
+    detail::Hyperslab box;
+    box.start.assign(layout.dims.size(), 0);
+    box.count.assign(layout.dims.size(), 0);
+    box.count[layout.vertical] = layout.vertical_size;
+    for (std::size_t j = 0; j < layout.leading.size(); ++j) {
+      box.start[layout.leading[j]] = slab.start[j];
+      box.count[layout.leading[j]] = slab.count[j];
+    }
+    Fields fields;
+    for (std::size_t i = 0; i < detail::quantity_count; ++i)
+      if (r.plans[i]) fields[i] = detail::read_field(r.nc, static_cast<Quantity>(i), *r.plans[i], layout, box);
+    std::size_t in_slab = 1;
+    for (std::size_t n : slab.count)
+      in_slab *= n;
+    Index leading = slab.start;
+    for (std::size_t k = 0; k < in_slab; ++k, ++c) {
+      InputPlace where;
+      where.file = r.path.string();
+      where.column_index = static_cast<long>(c);
+      atmosphere::Column column = detail::make_column(column_layers(r.nc, layout, fields, r.defaults, leading, c),
+                                                      r.defaults, where, r.surface_pressure_item);
+      atmosphere::validate(column, where);
+      columns.push_back(std::move(column));
+      for (std::size_t j = leading.size(); j-- > 0;) { // row-major: the last leading dimension varies fastest
+        if (++leading[j] < slab.start[j] + slab.count[j]) break;
+        leading[j] = slab.start[j];
+      }
     }
   }
+  return columns;
+}
+
+std::uint64_t ProfileReader::content_hash() const {
+  std::ifstream in(impl_->path, std::ios::binary);
+  if (!in) throw FileError(impl_->path.string(), "cannot be read");
+  std::uint64_t h = fnv1a(std::string_view{});
+  std::vector<char> piece(1 << 20);
+  while (in) {
+    in.read(piece.data(), static_cast<std::streamsize>(piece.size()));
+    const auto got = static_cast<std::size_t>(in.gcount());
+    if (got == 0) break;
+    h = fnv1a(std::string_view(piece.data(), got), h);
+  }
+  return h;
+}
+
+ProfileFile read_profile_file(const std::filesystem::path& path, const ProfileVariables& variables,
+                              const ProfileDefaults& defaults) {
+  const ProfileReader reader(path, variables, defaults);
+  ProfileFile result;
+  result.axes = reader.axes();
+  result.used_variables = reader.used_variables();
+  result.columns = reader.read(0, reader.column_count());
   return result;
 }
 

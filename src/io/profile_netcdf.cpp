@@ -136,12 +136,13 @@ std::vector<std::pair<std::string, std::string>> NetcdfFile::text_attributes(int
   return attributes;
 }
 
-std::string NetcdfFile::describe_index(int varid, std::size_t flat) const {
+std::string NetcdfFile::describe_index(int varid, std::size_t flat, const std::vector<std::size_t>& start,
+                                       const std::vector<std::size_t>& count) const {
   const std::vector<int> dims = dimensions(varid);
   std::vector<std::size_t> index(dims.size());
   for (std::size_t j = dims.size(); j-- > 0;) {
-    const std::size_t size = dimension_size(dims[j]);
-    index[j] = size > 0 ? flat % size : 0;
+    const std::size_t size = count.empty() ? dimension_size(dims[j]) : count[j];
+    index[j] = (size > 0 ? flat % size : 0) + (start.empty() ? 0 : start[j]);
     flat = size > 0 ? flat / size : 0;
   }
   std::string text;
@@ -151,15 +152,26 @@ std::string NetcdfFile::describe_index(int varid, std::size_t flat) const {
 }
 
 std::vector<double> NetcdfFile::read_values(int varid) const {
+  std::vector<std::size_t> start, count;
+  for (int d : dimensions(varid)) {
+    start.push_back(0);
+    count.push_back(dimension_size(d));
+  }
+  return read_values(varid, start, count);
+}
+
+std::vector<double> NetcdfFile::read_values(int varid, const std::vector<std::size_t>& start,
+                                            const std::vector<std::size_t>& count) const {
   if (!numeric(varid)) fail(varid, "must be numeric");
   if (text_attribute(varid, "_Unsigned"))
     fail(varid, "the _Unsigned attribute is not supported: store the values in an unsigned or wider type");
-  std::size_t count = 1;
-  for (int d : dimensions(varid))
-    count *= dimension_size(d);
-  std::vector<double> values(count);
-  if (count > 0) {
-    const int status = nc_get_var_double(ncid_, varid, values.data());
+  std::size_t total = 1;
+  for (std::size_t n : count)
+    total *= n;
+  std::vector<double> values(total);
+  if (total > 0) {
+    const int status = start.empty() ? nc_get_var_double(ncid_, varid, values.data()) // a scalar
+                                     : nc_get_vara_double(ncid_, varid, start.data(), count.data(), values.data());
     if (status != NC_NOERR) fail(varid, std::string("cannot read the values: ") + first_line(nc_strerror(status)));
   }
 
@@ -179,11 +191,11 @@ std::vector<double> NetcdfFile::read_values(int varid) const {
   for (std::size_t i = 0; i < values.size(); ++i) {
     const double v = values[i];
     if (!std::isfinite(v))
-      fail(varid, fmt::format("value {} at {}: every value used must be finite", v, describe_index(varid, i)));
+      fail(varid, fmt::format("value {} at {}: every value used must be finite", v, describe_index(varid, i, start, count)));
     for (const auto& [m, what] : missing)
       if (v == m)
         fail(varid, fmt::format("missing value ({} {}) at {}: every value used must be present", what, m,
-                                describe_index(varid, i)));
+                                describe_index(varid, i, start, count)));
   }
 
   const auto scale = numeric_attribute(ncid_, varid, "scale_factor");

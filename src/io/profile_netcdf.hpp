@@ -44,9 +44,15 @@ public:
   // infinite or missing value (_FillValue, netCDF's default fill for float and double variables without
   // one, or any missing_value).
   [[nodiscard]] std::vector<double> read_values(int varid) const;
+  // The box of the variable with `start` and `count` per dimension (file order), row-major, checked
+  // and unpacked as read_values does; errors give the index in the whole variable.
+  [[nodiscard]] std::vector<double> read_values(int varid, const std::vector<std::size_t>& start,
+                                                const std::vector<std::size_t>& count) const;
 
-  // "(time 1, lat 0, level 3)": the position of element `flat` (row-major) in the variable.
-  [[nodiscard]] std::string describe_index(int varid, std::size_t flat) const;
+  // "(time 1, lat 0, level 3)": the position of element `flat` (row-major) of the box with `start`
+  // and `count` (empty: the whole variable).
+  [[nodiscard]] std::string describe_index(int varid, std::size_t flat, const std::vector<std::size_t>& start = {},
+                                           const std::vector<std::size_t>& count = {}) const;
 
 private:
   [[noreturn]] void fail(int varid, const std::string& message) const;

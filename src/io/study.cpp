@@ -98,6 +98,15 @@ void read_profile_file_keys(TomlReader& r, const toml::table& t, const std::stri
   for (const char* key : {"profile", "surface_temperature_k", "surface_relative_humidity", "stratospheric_h2o_ppmv", "ozone_scale"})
     if (t.contains(key))
       r.problem(t.get(key)->source(), prefix + "." + key, "does not apply to a column read from a profile_file");
+  if (auto v = r.string(t, prefix, "sun_from_file")) {
+    if (*v == "instantaneous") spec.sun.from_file = SunFromFile::instantaneous;
+    else if (*v == "daily_mean") spec.sun.from_file = SunFromFile::daily_mean;
+    else r.problem(t.get("sun_from_file")->source(), prefix + ".sun_from_file",
+                   "must be \"instantaneous\" or \"daily_mean\", not \"" + *v + "\"");
+    for (const char* key : {"cos_zenith", "latitude_deg", "day_of_year", "local_solar_time_h"})
+      if (t.contains(key))
+        r.problem(t.get(key)->source(), prefix + "." + key, "cannot be given with sun_from_file (the file gives the Sun)");
+  }
   if (auto v = r.string(t, prefix, "profile_file")) {
     std::filesystem::path path(*v);
     if (path.is_relative() && !file_name.empty()) path = std::filesystem::path(file_name).parent_path() / path;
@@ -123,7 +132,7 @@ ColumnSpec read_column(TomlReader& r, const toml::table& t, std::size_t i, const
                         {"name", "profile", "surface_temperature_k", "surface_relative_humidity", "stratospheric_h2o_ppmv",
                          "co2_ppmv", "ch4_ppmv", "n2o_ppmv", "ozone_scale", "surface_emissivity", "surface_albedo",
                          "cos_zenith", "latitude_deg", "day_of_year", "local_solar_time_h", "surface_emissivity_by_band",
-                         "surface_albedo_by_band", "profile_file", "variables"});
+                         "surface_albedo_by_band", "profile_file", "variables", "sun_from_file"});
   ColumnSpec spec;
   spec.name = r.string(t, prefix, "name").value_or(fmt::format("column_{}", i));
   atmosphere::ProfileSettings& s = spec.settings;
@@ -145,7 +154,9 @@ ColumnSpec read_column(TomlReader& r, const toml::table& t, std::size_t i, const
   if (auto v = r.number(t, prefix, "ozone_scale", 0.0, 100.0)) s.ozone_scale = *v;
   if (auto v = r.number(t, prefix, "surface_emissivity", 0.0, 1.0)) s.surface_emissivity = *v;
   if (auto v = r.number(t, prefix, "surface_albedo", 0.0, 1.0)) s.surface_albedo = *v;
-  read_sun(r, t, prefix, spec.sun);
+  if (!spec.sun.from_file) read_sun(r, t, prefix, spec.sun);
+  if (t.contains("sun_from_file") && !t.contains("profile_file"))
+    r.problem(t.get("sun_from_file")->source(), prefix + ".sun_from_file", "needs a profile_file column");
   spec.surface_emissivity_by_band = r.number_array(t, prefix, "surface_emissivity_by_band", 0.0, 1.0);
   spec.surface_albedo_by_band = r.number_array(t, prefix, "surface_albedo_by_band", 0.0, 1.0);
   return spec;

@@ -7,6 +7,7 @@
 
 #include "bandstack/core/error.hpp"
 #include "bandstack/core/units.hpp"
+#include "bandstack/io/profile_sun.hpp"
 
 namespace bandstack::io {
 
@@ -52,7 +53,7 @@ void set_column_value(ColumnSpec& spec, std::string_view key, double value) {
   else if (key == "ozone_scale") s.ozone_scale = value;
   else if (key == "surface_emissivity") s.surface_emissivity = value;
   else if (key == "surface_albedo") s.surface_albedo = value;
-  else if (key == "cos_zenith") sun = SunSpec{value, std::nullopt, std::nullopt, std::nullopt};
+  else if (key == "cos_zenith") sun = SunSpec{value, std::nullopt, std::nullopt, std::nullopt, std::nullopt};
   else if (key == "latitude_deg") { sun.latitude_deg = value; sun.cos_zenith.reset(); }
   else if (key == "day_of_year") { sun.day_of_year = value; sun.cos_zenith.reset(); }
   else if (key == "local_solar_time_h") { sun.local_solar_time_h = value; sun.cos_zenith.reset(); }
@@ -64,7 +65,8 @@ void set_column_value(ColumnSpec& spec, std::string_view key, double value) {
 namespace {
 
 // A study whose one column is a profile file: the file's columns, with its leading dimensions as
-// the output axes (a file without leading dimensions gives one "column").
+// the output axes (a file without leading dimensions gives one "column"). The file is opened and
+// checked, its values are read later, block by block.
 ExpandedStudy expand_profile_file(const Study& study) {
   const ColumnSpec& spec = study.columns.front();
   const atmosphere::ProfileSettings& s = spec.settings;
@@ -74,19 +76,22 @@ ExpandedStudy expand_profile_file(const Study& study) {
   defaults.n2o_mole_fraction = s.n2o_mole_fraction;
   defaults.surface_emissivity = s.surface_emissivity;
   defaults.surface_albedo = s.surface_albedo;
-  ProfileFile file = read_profile_file(spec.profile_file, spec.profile_variables, defaults);
   ExpandedStudy out;
+  out.profile = std::make_shared<const ProfileReader>(spec.profile_file, spec.profile_variables, defaults);
   out.study = study;
-  out.study.columns.clear();
-  for (std::size_t c = 0; c < file.columns.size(); ++c) {
-    ColumnSpec copy = spec;
-    copy.name = file.columns.size() == 1 ? spec.name : fmt::format("{}[{}]", spec.name, c);
-    copy.given_column = std::make_shared<const atmosphere::Column>(std::move(file.columns[c]));
-    out.study.columns.push_back(std::move(copy));
-  }
-  for (const LeadingAxis& a : file.axes)
+  out.study.columns.front().profile_column_count = out.profile->column_count();
+  for (const LeadingAxis& a : out.profile->axes())
     out.axes.push_back(OutputAxis{a.name, a.size, a.values, {}, a.attributes});
   if (out.axes.empty()) out.axes.push_back(OutputAxis{"column", 1, {}, {spec.name}, {}});
+  if (spec.sun.from_file) {
+    out.sun = std::make_shared<const ProfileSun>(spec.profile_file, out.profile->axes(), *spec.sun.from_file);
+    for (const SweepAxis& sweep : study.sweeps)
+      if (sweep.key == "cos_zenith" || sweep.key == "latitude_deg" || sweep.key == "day_of_year" ||
+          sweep.key == "local_solar_time_h")
+        throw InputError(InputPlace{study.source_file, "sweeps.key", {}, {}, {}, {}},
+                         fmt::format("\"{}\" cannot be swept on a column with sun_from_file (the file gives the Sun)",
+                                     sweep.key));
+  }
   // Sweeps cross the file's columns (built on demand by column_spec; study.sweeps is kept).
   for (const SweepAxis& sweep : study.sweeps) {
     const SweepKey* info = find_sweep_key(sweep.key);
@@ -98,12 +103,26 @@ ExpandedStudy expand_profile_file(const Study& study) {
   return out;
 }
 
+std::size_t sweep_points(const Study& study) {
+  std::size_t n = 1;
+  for (const SweepAxis& sweep : study.sweeps) n *= sweep.values.size();
+  return n;
+}
+
+bool from_profile_file(const Study& study) {
+  return study.columns.size() == 1 && study.columns.front().profile_column_count > 0;
+}
+
 } // namespace
 
 std::size_t column_count(const Study& study) {
-  std::size_t n = study.columns.size();
-  for (const SweepAxis& sweep : study.sweeps) n *= sweep.values.size();
-  return n;
+  return (from_profile_file(study) ? study.columns.front().profile_column_count : study.columns.size()) *
+         sweep_points(study);
+}
+
+std::size_t file_column_of(const Study& study, std::size_t i) {
+  const std::size_t points = sweep_points(study);
+  return points == 0 ? 0 : i / points;
 }
 
 ColumnSpec column_spec(const Study& study, std::size_t i) {
@@ -113,10 +132,37 @@ ColumnSpec column_spec(const Study& study, std::size_t i) {
     index[a] = rest % study.sweeps[a].values.size();
     rest /= study.sweeps[a].values.size();
   }
-  ColumnSpec spec = study.columns.at(rest);
+  ColumnSpec spec;
+  if (from_profile_file(study)) {
+    const ColumnSpec& base = study.columns.front();
+    if (rest >= base.profile_column_count) throw InternalError(fmt::format("column {} is not in the profile file", i));
+    spec = base;
+    spec.profile_column = rest;
+    if (base.profile_column_count > 1) spec.name = fmt::format("{}[{}]", base.name, rest);
+  } else {
+    spec = study.columns.at(rest);
+  }
   for (std::size_t a = 0; a < study.sweeps.size(); ++a)
     set_column_value(spec, study.sweeps[a].key, study.sweeps[a].values[index[a]]);
   return spec;
+}
+
+std::optional<SunSpec> file_sun(const ExpandedStudy& expanded, std::size_t c) {
+  if (!expanded.sun) return std::nullopt;
+  const ColumnSunPosition p = expanded.sun->position(c);
+  SunSpec sun;
+  sun.latitude_deg = p.latitude_deg;
+  sun.day_of_year = p.day_of_year;
+  if (expanded.sun->mode() == SunFromFile::instantaneous) sun.local_solar_time_h = p.local_solar_time_h;
+  return sun;
+}
+
+std::vector<atmosphere::Column> read_profile_columns(const ExpandedStudy& expanded, std::size_t first,
+                                                     std::size_t count) {
+  if (!expanded.profile || count == 0) return {};
+  const std::size_t begin = file_column_of(expanded.study, first);
+  const std::size_t end = file_column_of(expanded.study, first + count - 1) + 1;
+  return expanded.profile->read(begin, end - begin);
 }
 
 ExpandedStudy prepare_columns(const Study& study) {
@@ -141,12 +187,23 @@ ExpandedStudy prepare_columns(const Study& study) {
 ExpandedStudy expand_sweeps(const Study& study) {
   if (study.columns.size() == 1 && !study.columns.front().profile_file.empty()) {
     ExpandedStudy out = expand_profile_file(study);
-    std::vector<ColumnSpec> specs;
     const std::size_t n = column_count(out.study);
+    std::vector<std::shared_ptr<const atmosphere::Column>> file_columns;
+    for (atmosphere::Column& c : out.profile->read(0, out.profile->column_count()))
+      file_columns.push_back(std::make_shared<const atmosphere::Column>(std::move(c)));
+    std::vector<ColumnSpec> specs;
     specs.reserve(n);
-    for (std::size_t i = 0; i < n; ++i) specs.push_back(column_spec(out.study, i));
+    for (std::size_t i = 0; i < n; ++i) {
+      specs.push_back(column_spec(out.study, i));
+      ColumnSpec& spec = specs.back();
+      spec.given_column = file_columns[*spec.profile_column];
+      if (spec.sun.from_file) spec.sun = *file_sun(out, *spec.profile_column);
+      spec.profile_column_count = 0;
+    }
     out.study.columns = std::move(specs);
     out.study.sweeps.clear();
+    out.profile.reset();
+    out.sun.reset();
     return out;
   }
   ExpandedStudy out;

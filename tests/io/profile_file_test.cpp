@@ -516,3 +516,54 @@ TEST_F(ProfileFileTest, MissingOrNonNetcdfFilesAreFileErrors) {
   std::ofstream(text) << "not netCDF\n";
   EXPECT_THROW((void)read_profile_file(text, {}, {}), FileError);
 }
+
+// Block reading (ProfileReader::read): any run of columns equals the same columns of the whole read,
+// in both layouts (vertical last; vertical between the leading dimensions with a full pressure field).
+TEST_F(ProfileFileTest, BlocksOfColumnsEqualTheWholeRead) {
+  for (const File& f : {four_dimensional(), time_level_lat(true)}) {
+    const fs::path path = write(f);
+    const ProfileFile whole = read_profile_file(path, {}, {});
+    const bandstack::io::ProfileReader reader(path, {}, {});
+    ASSERT_EQ(reader.column_count(), whole.columns.size());
+    EXPECT_EQ(reader.layer_count(), 5u);
+    EXPECT_EQ(reader.used_variables(), whole.used_variables);
+    for (std::size_t first = 0; first < reader.column_count(); ++first)
+      for (std::size_t count = 1; first + count <= reader.column_count(); ++count) {
+        ProfileFile block;
+        block.columns = reader.read(first, count);
+        ProfileFile expected;
+        expected.columns.assign(whole.columns.begin() + static_cast<long>(first),
+                                whole.columns.begin() + static_cast<long>(first + count));
+        expect_same_columns(block, expected, 0.0);
+      }
+    EXPECT_TRUE(reader.read(3, 0).empty());
+  }
+}
+
+// A bad value is found when its column is read, and named by its index in the whole file; the other
+// columns read normally (the file is opened without reading the values).
+TEST_F(ProfileFileTest, BlocksFindBadValuesOnlyInTheirOwnColumns) {
+  File f = four_dimensional();
+  // Column 7 = (time 1, lat 0, lon 1).
+  f.var("ta").values[((1 * 3 + 0) * 2 + 1) * 5 + 3] = std::numeric_limits<double>::quiet_NaN();
+  const fs::path path = write(f);
+  const bandstack::io::ProfileReader reader(path, {}, {});
+  EXPECT_EQ(reader.read(0, 7).size(), 7u);
+  EXPECT_EQ(reader.read(8, 4).size(), 4u);
+  try {
+    (void)reader.read(6, 3);
+    FAIL() << "read a NaN";
+  } catch (const InputError& e) {
+    EXPECT_EQ(e.place().item, "ta");
+    EXPECT_NE(std::string(e.what()).find("(time 1, lat 0, lon 1, level 3)"), std::string::npos) << e.what();
+  }
+}
+
+TEST_F(ProfileFileTest, ContentHashFollowsTheBytes) {
+  File f = four_dimensional();
+  const bandstack::io::ProfileReader a(write(f, "a.nc"), {}, {});
+  f.var("ta").values[0] += 0.5;
+  const bandstack::io::ProfileReader other(write(f, "c.nc"), {}, {});
+  EXPECT_EQ(a.content_hash(), a.content_hash());
+  EXPECT_NE(a.content_hash(), other.content_hash());
+}

@@ -56,5 +56,41 @@ profile = "tropical"
     EXPECT_NE(m.find(expected), std::string::npos) << "missing: " << expected << "\nin:\n" << m;
 }
 
+TEST(StudyProfileFile, SunFromFileIsReadAndChecked) {
+  const Study s = parse_study(R"(
+[[columns]]
+profile_file = "p.nc"
+sun_from_file = "daily_mean"
+)", "s.toml");
+  ASSERT_TRUE(s.columns[0].sun.from_file.has_value());
+  EXPECT_EQ(*s.columns[0].sun.from_file, SunFromFile::daily_mean);
+  EXPECT_FALSE(s.columns[0].sun.latitude_deg.has_value());
+  std::string m;
+  try {
+    (void)parse_study(R"(
+[[columns]]
+profile_file = "p.nc"
+sun_from_file = "hourly"
+cos_zenith = 0.5
+)", "s.toml");
+  } catch (const InputError& e) {
+    m = e.what();
+  }
+  for (const char* expected : {"'columns[0].sun_from_file': must be \"instantaneous\" or \"daily_mean\"",
+                               "'columns[0].cos_zenith': cannot be given with sun_from_file"})
+    EXPECT_NE(m.find(expected), std::string::npos) << "missing: " << expected << "\nin:\n" << m;
+  m.clear();
+  try {
+    (void)parse_study(R"(
+[[columns]]
+profile = "tropical"
+sun_from_file = "instantaneous"
+)", "s.toml");
+  } catch (const InputError& e) {
+    m = e.what();
+  }
+  EXPECT_NE(m.find("'columns[0].sun_from_file': needs a profile_file column"), std::string::npos) << m;
+}
+
 } // namespace
 } // namespace bandstack::io

@@ -4,7 +4,9 @@
 // or named in the study; units converted to SI; pressure in either order.
 #include "bandstack/atmosphere/column.hpp"
 
+#include <cstdint>
 #include <filesystem>
+#include <memory>
 #include <optional>
 #include <string>
 #include <utility>
@@ -52,6 +54,36 @@ struct ProfileFile {
   std::vector<LeadingAxis> axes;           // leading dimensions in file order (may be empty: one column)
   std::vector<atmosphere::Column> columns; // one per point of the leading dimensions, row-major
   std::vector<std::string> used_variables; // "temperature <- ta (K)", ... for provenance
+};
+
+// A profile file opened for reading its columns block by block, so that memory does not grow with the
+// file's column count. The constructor checks everything that does not need the values (variables,
+// dimensions, units) and reads the leading coordinates; read() reads only the hyperslabs of the
+// columns asked for. Errors as read_profile_file's. Not thread-safe (one read at a time).
+class ProfileReader {
+public:
+  ProfileReader(const std::filesystem::path& path, const ProfileVariables& variables, const ProfileDefaults& defaults);
+  ~ProfileReader();
+  ProfileReader(ProfileReader&&) noexcept;
+  ProfileReader& operator=(ProfileReader&&) noexcept;
+
+  [[nodiscard]] const std::filesystem::path& path() const noexcept;
+  // Number of columns: the product of the leading dimensions' sizes (1 without any).
+  [[nodiscard]] std::size_t column_count() const noexcept;
+  // Number of layers per column (the vertical dimension's size).
+  [[nodiscard]] std::size_t layer_count() const noexcept;
+  [[nodiscard]] const std::vector<LeadingAxis>& axes() const noexcept;
+  [[nodiscard]] const std::vector<std::string>& used_variables() const noexcept;
+  // Columns [first, first + count) in row-major order of the leading dimensions, validated
+  // (atmosphere::validate). InternalError if the range leaves the file.
+  [[nodiscard]] std::vector<atmosphere::Column> read(std::size_t first, std::size_t count) const;
+  // FNV-1a hash of the file's bytes, read in pieces (identifies the data for resuming a run).
+  [[nodiscard]] std::uint64_t content_hash() const;
+
+  struct Impl; // the open file and what was found in it (profile_file.cpp)
+
+private:
+  std::unique_ptr<Impl> impl_;
 };
 
 // Reads every column of the file. Each column's layers are the file's vertical points (sorted to

@@ -13,6 +13,7 @@
 #include "bandstack/climate/perturbation.hpp"
 #include "bandstack/io/demo_study.hpp"
 #include "bandstack/io/profile_file.hpp"
+#include "bandstack/io/profile_sun.hpp"
 #include "bandstack/atmosphere/profiles.hpp"
 #include "bandstack/solvers/grey.hpp"
 
@@ -27,6 +28,9 @@ struct SunSpec {
   std::optional<double> latitude_deg;
   std::optional<double> day_of_year;
   std::optional<double> local_solar_time_h;
+  // A profile-file column may take the Sun's position from the file's coordinates instead
+  // (io/profile_sun.hpp); then the four values above are empty.
+  std::optional<SunFromFile> from_file;
 };
 
 // One column of the study: a built-in profile with its settings, or a profile file.
@@ -37,8 +41,13 @@ struct ColumnSpec {
   // variable names given under [columns.variables]; io::expand_sweeps reads it.
   std::filesystem::path profile_file;
   ProfileVariables profile_variables;
-  // Set by io::expand_sweeps for a column read from a profile file: used instead of `settings`'
-  // built-in profile (the sun and the per-band surface keys still come from this spec).
+  // Set by io::prepare_columns on a profile-file column: the number of columns in the file. The
+  // columns io::column_spec then gives are the file's, each with its index in the file.
+  std::size_t profile_column_count = 0;
+  std::optional<std::size_t> profile_column;
+  // A column read from a profile file (set by io::expand_sweeps, or by the batch layer from the
+  // block it read): used instead of `settings`' built-in profile (the sun and the per-band surface
+  // keys still come from this spec).
   std::shared_ptr<const atmosphere::Column> given_column;
   // Per-column values of study-level settings, set only by [[sweeps]] (io/sweep.hpp): the total solar
   // irradiance at 1 au (W m-2; replaces [shortwave] solar_constant_w_m2 for this column) and the

@@ -1,6 +1,7 @@
 #pragma once
 // Sweeps: the numeric [[columns]] keys a study may vary (docs/study-file.md, [[sweeps]]), and the
 // expansion of a study into one column per combination of columns and sweep values.
+#include <optional>
 #include <string>
 #include <string_view>
 #include <utility>
@@ -41,20 +42,35 @@ struct OutputAxis {
 // row-major order (the study's columns outermost, then each sweep in study order), and sweeps is
 // empty. A study whose column is a profile_file expands into the file's columns (given_column set,
 // named "<name>[i]"), with the file's leading dimensions as the axes (io/profile_file.hpp); the
-// file's errors propagate. Throws InputError (naming the sweep) if a combination is invalid (e.g. latitude_deg swept
-// on a column without day_of_year).
+// file's errors propagate. Throws InputError (naming the sweep) if a combination is invalid (e.g.
+// latitude_deg swept on a column without day_of_year).
 struct ExpandedStudy {
   Study study;
   std::vector<OutputAxis> axes;        // "column" (labels = column names), then one per sweep
+  // The open profile file of a profile-file study (prepare_columns), else null: the columns it
+  // gives are read block by block (read_profile_columns).
+  std::shared_ptr<const ProfileReader> profile;
+  // With sun_from_file: the Sun's position of each of the profile file's columns, else null.
+  std::shared_ptr<const ProfileSun> sun;
 };
 [[nodiscard]] ExpandedStudy expand_sweeps(const Study& study);
 
-// The same columns without holding one spec per column (memory independent of the sweep sizes):
-// a profile-file study is expanded as above; otherwise `study` keeps its own columns and sweeps and
-// column_spec builds each expanded column on demand. Checks what expand_sweeps checks, per base
-// column and sweep value.
+// The same columns without holding one spec per column (memory independent of the sweep sizes and
+// of the profile file's size): `study` keeps its own columns and sweeps and column_spec builds each
+// expanded column on demand; a profile-file study keeps its one column (profile_column_count set)
+// and `profile` open, with the file's leading dimensions and the sweeps as the axes. Checks what
+// expand_sweeps checks, per base column and sweep value.
 [[nodiscard]] ExpandedStudy prepare_columns(const Study& study);
-// Number of columns after expansion: columns x the sweeps' value counts.
+// The file columns that the expanded columns [first, first + count) of a prepare_columns result
+// use, read from its profile file: the first of them is the file column of expanded column `first`
+// (file_column_of). Empty for a study without a profile file.
+[[nodiscard]] std::vector<atmosphere::Column> read_profile_columns(const ExpandedStudy& expanded, std::size_t first,
+                                                                   std::size_t count);
+// The Sun of file column c when the study takes it from the file (ExpandedStudy::sun), else nullopt.
+[[nodiscard]] std::optional<SunSpec> file_sun(const ExpandedStudy& expanded, std::size_t c);
+// The file column of expanded column i of a profile-file study.
+[[nodiscard]] std::size_t file_column_of(const Study& study, std::size_t i);
+// Number of columns after expansion: columns (or a profile file's columns) x the sweeps' value counts.
 [[nodiscard]] std::size_t column_count(const Study& study);
 // Column i of the expansion (row-major: the study's columns outermost, then each sweep in order).
 [[nodiscard]] ColumnSpec column_spec(const Study& study, std::size_t i);
