@@ -42,8 +42,12 @@
 #include "bandstack/io/band_set_file.hpp"
 #include "bandstack/io/builtin_files.hpp"
 #include "bandstack/io/demo_study.hpp"
+#include "bandstack/io/profile_file.hpp"
+#include "bandstack/io/profile_sun.hpp"
 #include "bandstack/io/result_writer.hpp"
 #include "bandstack/io/study.hpp"
 
 #include "bandstack/batch/column_result.hpp"
 #include "bandstack/batch/run.hpp"
+
+#include "bandstack/report/report.hpp"
