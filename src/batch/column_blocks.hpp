@@ -2,6 +2,8 @@
 // Private to batch: the pieces of a run shared by compute_columns (all at once) and run_study
 // (block by block).
 #include <cstddef>
+#include <exception>
+#include <vector>
 #include <optional>
 
 #include "bandstack/batch/column_result.hpp"
@@ -19,6 +21,24 @@ namespace bandstack::batch {
 [[nodiscard]] atmosphere::Column build_column(const io::Study& study, std::size_t i,
                                               const atmosphere::Column* file_column = nullptr,
                                               const std::optional<io::SunSpec>& file_sun = std::nullopt);
+
+// What the columns [first, first + count) of a prepare_columns result need from outside the study:
+// the profile-file columns they use, read as one block of the file (serially). When that block
+// fails and `per_column` is set, the file columns are read one by one, so that a bad one fails only
+// the columns built from it.
+class BlockInputs {
+public:
+  BlockInputs(const io::ExpandedStudy& expanded, std::size_t first, std::size_t count, bool per_column);
+  // Column i (its index in the expansion, within the block), with its Sun; InputError names it, or
+  // is the error its file column gave. Thread-safe.
+  [[nodiscard]] atmosphere::Column build(std::size_t i) const;
+
+private:
+  const io::ExpandedStudy& expanded_;
+  std::size_t file_first_ = 0;
+  std::vector<atmosphere::Column> file_columns_;
+  std::vector<std::exception_ptr> file_errors_; // per file column, null if it was read
+};
 
 // Columns [first, first + count) of a prepare_columns result, built in parallel (in the caller's
 // task arena) after reading the profile-file columns they use (serially, one block of the file).

@@ -76,16 +76,40 @@ atmosphere::Column build_column(const io::Study& study, std::size_t i, const atm
   }
 }
 
+BlockInputs::BlockInputs(const io::ExpandedStudy& expanded, std::size_t first, std::size_t count, bool per_column)
+    : expanded_(expanded) {
+  if (!expanded.profile || count == 0) return;
+  file_first_ = io::file_column_of(expanded.study, first);
+  const std::size_t file_count = io::file_column_of(expanded.study, first + count - 1) + 1 - file_first_;
+  try {
+    file_columns_ = expanded.profile->read(file_first_, file_count);
+    file_errors_.assign(file_count, nullptr);
+  } catch (const InputError&) {
+    if (!per_column) throw;
+    file_columns_.assign(file_count, atmosphere::Column{});
+    file_errors_.assign(file_count, nullptr);
+    for (std::size_t f = 0; f < file_count; ++f) {
+      try {
+        file_columns_[f] = std::move(expanded.profile->read(file_first_ + f, 1).front());
+      } catch (const InputError&) {
+        file_errors_[f] = std::current_exception();
+      }
+    }
+  }
+}
+
+atmosphere::Column BlockInputs::build(std::size_t i) const {
+  if (!expanded_.profile) return build_column(expanded_.study, i);
+  const std::size_t f = io::file_column_of(expanded_.study, i);
+  const std::size_t k = f - file_first_;
+  if (file_errors_.at(k)) std::rethrow_exception(file_errors_[k]);
+  return build_column(expanded_.study, i, &file_columns_[k], io::file_sun(expanded_, f));
+}
+
 std::vector<atmosphere::Column> build_block(const io::ExpandedStudy& expanded, std::size_t first, std::size_t count) {
-  const std::vector<atmosphere::Column> file_columns = io::read_profile_columns(expanded, first, count);
-  const std::size_t file_first = file_columns.empty() ? 0 : io::file_column_of(expanded.study, first);
+  const BlockInputs inputs(expanded, first, count, false);
   std::vector<atmosphere::Column> columns(count);
-  tbb::parallel_for(std::size_t{0}, count, [&](std::size_t k) {
-    const std::size_t i = first + k;
-    const std::size_t f = io::file_column_of(expanded.study, i);
-    const atmosphere::Column* file_column = file_columns.empty() ? nullptr : &file_columns.at(f - file_first);
-    columns[k] = build_column(expanded.study, i, file_column, io::file_sun(expanded, f));
-  });
+  tbb::parallel_for(std::size_t{0}, count, [&](std::size_t k) { columns[k] = inputs.build(first + k); });
   return columns;
 }
 
@@ -189,6 +213,10 @@ std::filesystem::path output_path(const io::Study& study, const RunOptions& opti
 ColumnSummary summarise(const ColumnResult& r) {
   ColumnSummary s;
   s.name = r.column.name;
+  if (r.failed()) {
+    s.error = r.error;
+    return s;
+  }
   s.surface_temperature_k = r.column.surface_temperature_k;
   s.olr_w_m2 = r.longwave.olr();
   s.surface_lw_down_w_m2 = r.longwave.surface_down();
@@ -201,14 +229,32 @@ ColumnSummary summarise(const ColumnResult& r) {
   return s;
 }
 
+namespace {
+
+// "2 of 30 columns failed ...", or "" when none did.
+std::string failure_lines(const RunOutcome& outcome) {
+  if (outcome.failed_columns == 0) return {};
+  std::string text = fmt::format("{} of {} columns failed (column_status and column_error in the file){}\n",
+                                 outcome.failed_columns, outcome.column_count,
+                                 outcome.first_failures.empty() ? "" : "; the first:");
+  for (const std::string& e : outcome.first_failures) text += "  " + e + "\n";
+  return text;
+}
+
+} // namespace
+
 std::string format_summary(const RunOutcome& outcome) {
   if (outcome.summaries.size() != outcome.column_count || outcome.summaries.empty())
-    return fmt::format("{} columns{}\nwrote {}\n", outcome.column_count,
+    return fmt::format("{} columns{}\n{}wrote {}\n", outcome.column_count,
                        outcome.resumed_from > 0 ? fmt::format(" ({} of them from the interrupted run)", outcome.resumed_from) : "",
-                       outcome.output_file.string());
+                       failure_lines(outcome), outcome.output_file.string());
   std::string text = fmt::format("{:<28} {:>9} {:>9} {:>9} {:>9} {:>9}   (W m-2; T in K)\n", "column", "T_surf",
                                  "OLR", "LW_down", "ASR", "TOA_net");
   for (const ColumnSummary& r : outcome.summaries) {
+    if (!r.error.empty()) {
+      text += fmt::format("{:<28} failed (see below)\n", r.name);
+      continue;
+    }
     const auto asr = r.absorbed_solar_w_m2;
     text += fmt::format("{:<28} {:>9.2f} {:>9.2f} {:>9.2f} {:>9} {:>9}\n", r.name, r.surface_temperature_k, r.olr_w_m2,
                         r.surface_lw_down_w_m2, asr ? fmt::format("{:.2f}", *asr) : "-",
@@ -218,14 +264,14 @@ std::string format_summary(const RunOutcome& outcome) {
     text += fmt::format("\n{:<28} {:<28} {:>9} {:>9} {:>9}   (forcing in W m-2; dT_surf in K)\n", "column", "experiment",
                         "F_TOA", "F_adj", "dT_surf");
     for (const ColumnSummary& r : outcome.summaries)
-      for (std::size_t e = 0; e < r.experiments.size() && e < outcome.experiment_names.size(); ++e) {
+      for (std::size_t e = 0; e < r.experiments.size() && e < outcome.experiment_names.size(); ++e) { // none if failed
         const ColumnSummary::Experiment& x = r.experiments[e];
         text += fmt::format("{:<28} {:<28} {:>9.3f} {:>9.3f} {:>9}\n", r.name, outcome.experiment_names[e], x.forcing_toa_w_m2,
                             x.forcing_adjusted_w_m2,
                             x.surface_temperature_change_k ? fmt::format("{:.3f}", *x.surface_temperature_change_k) : "-");
       }
   }
-  return text + fmt::format("wrote {}\n", outcome.output_file.string());
+  return text + failure_lines(outcome) + fmt::format("wrote {}\n", outcome.output_file.string());
 }
 
 } // namespace bandstack::batch

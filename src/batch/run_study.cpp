@@ -42,16 +42,42 @@ struct Plan {
   const ShortwaveSetup& shortwave;
   const ClimateSetup& climate;
   std::size_t threads;
+  bool stop_on_column_error;
 };
 
-// Columns [first, first + count): built and computed in parallel, each result in its own slot.
+// Marks `result` failed with the message of the exception being handled, unless failures stop the
+// run (then it rethrows).
+void record_failure(ColumnResult& result, bool stop) {
+  try {
+    throw;
+  } catch (const InputError& e) {
+    if (stop) throw;
+    result = ColumnResult{};
+    result.status = ColumnStatus::invalid_input;
+    result.error = e.what();
+  } catch (const ConvergenceError& e) {
+    if (stop) throw;
+    result = ColumnResult{};
+    result.status = ColumnStatus::not_converged;
+    result.error = e.what();
+  }
+}
+
+// Columns [first, first + count): built and computed in parallel, each result in its own slot; a
+// column that fails is recorded in its slot (record_failure).
 std::vector<ColumnResult> compute_block(const Plan& plan, std::size_t first, std::size_t count, Progress& progress,
                                         std::atomic<std::size_t>& done) {
   std::vector<ColumnResult> results(count);
   const auto work = [&] {
-    const std::vector<atmosphere::Column> columns = build_block(plan.expanded, first, count);
+    const BlockInputs inputs(plan.expanded, first, count, !plan.stop_on_column_error);
     tbb::parallel_for(std::size_t{0}, count, [&](std::size_t i) {
-      compute_one(plan.expanded.study, plan.longwave, plan.shortwave, plan.climate, first + i, columns[i], results[i]);
+      try {
+        const atmosphere::Column column = inputs.build(first + i);
+        compute_one(plan.expanded.study, plan.longwave, plan.shortwave, plan.climate, first + i, column, results[i]);
+      } catch (...) {
+        record_failure(results[i], plan.stop_on_column_error);
+        results[i].column.name = io::column_spec(plan.expanded.study, first + i).name;
+      }
       progress.update(done.fetch_add(1) + 1);
     });
   };
@@ -63,6 +89,9 @@ std::vector<ColumnResult> compute_block(const Plan& plan, std::size_t first, std
   }
   return results;
 }
+
+// Failure messages kept in RunOutcome::first_failures.
+constexpr std::size_t max_failures_kept = 5;
 
 void note(const RunOptions& options, const std::string& text) {
   if (options.note) options.note(text);
@@ -116,14 +145,14 @@ RunOutcome run_study(const io::Study& study, const RunOptions& options) {
   check_band_properties(flat, setup, sw_setup);
   const ClimateSetup climate_setup = prepare_climate(flat, setup, sw_setup);
   const io::RunInfo info = run_info(study, setup, sw_setup);
-  const Plan plan{expanded, setup, sw_setup, climate_setup, options.threads};
+  const Plan plan{expanded, setup, sw_setup, climate_setup, options.threads, options.stop_on_column_error};
   const std::string hash = run_hash(study, expanded, options);
 
   RunOutcome outcome;
   outcome.output_file = path;
   outcome.experiment_names = info.experiment_names;
   outcome.column_count = total;
-  const std::size_t start = resume_point(path, hash, options, total);
+  std::size_t start = resume_point(path, hash, options, total);
   outcome.resumed_from = start;
   const bool keep = start == 0 && total <= options.summary_columns;
   const io::StorageSettings storage{options.deflate_level, options.chunk_columns};
@@ -133,24 +162,56 @@ RunOutcome run_study(const io::Study& study, const RunOptions& options) {
   Progress progress(total, start, options.progress);
   std::atomic<std::size_t> done{start};
   std::optional<io::ResultFileWriter> writer;
+  // Blocks computed before the file could be defined: it needs one computed column as a sample, and
+  // a block may have failed whole. They are written as soon as a column succeeds.
+  std::vector<std::pair<std::size_t, std::vector<ColumnResult>>> pending;
+  std::optional<std::string> first_error;
   std::size_t first = start;
   try {
     while (first < total) {
       const std::size_t count = std::min(options.chunk_columns, total - first);
       std::vector<ColumnResult> results = compute_block(plan, first, count, progress, done);
-      if (!writer && first > 0) {
+      for (const ColumnResult& r : results) {
+        if (!r.failed()) continue;
+        if (outcome.first_failures.size() < max_failures_kept) outcome.first_failures.push_back(r.error);
+        ++outcome.failed_columns;
+        if (!first_error) first_error = r.error;
+      }
+      const auto sample = std::find_if(results.begin(), results.end(), [](const ColumnResult& r) { return !r.failed(); });
+      if (!writer && sample == results.end()) { // nothing to define the file from yet
+        if (keep)
+          for (const ColumnResult& r : results) outcome.summaries.push_back(summarise(r));
+        pending.emplace_back(first, std::move(results));
+        first += count;
+        if (const int signal = InterruptGuard::signal_received(); signal != 0 && first < total) {
+          progress.finish(); // the pending blocks are computed again when the run resumes
+          outcome.interrupted_by = signal;
+          outcome.columns_written = pending.front().first;
+          outcome.summaries.clear();
+          return outcome;
+        }
+        continue;
+      }
+      if (!writer && start > 0) {
         try {
-          writer.emplace(io::ResultFileWriter::reopen(io::working_path(path), results.front(), info, expanded.axes));
+          writer.emplace(io::ResultFileWriter::reopen(io::working_path(path), *sample, info, expanded.axes));
         } catch (const FileError& e) {
           note(options, fmt::format("starting {} afresh: {}", path.string(), e.what()));
           io::discard_resumable(path);
           first = 0;
+          start = 0;
           outcome.resumed_from = 0;
+          outcome.failed_columns = 0;
+          outcome.first_failures.clear();
+          outcome.summaries.clear();
+          pending.clear();
           done = 0;
           continue;
         }
       }
-      if (!writer) writer.emplace(io::working_path(path), results.front(), info, expanded.axes, storage);
+      if (!writer) writer.emplace(io::working_path(path), *sample, info, expanded.axes, storage);
+      for (const auto& [block_first, block] : pending) writer->write_block(block_first, block);
+      pending.clear();
       writer->write_block(first, results);
       writer->sync();
       first += count;
@@ -167,7 +228,10 @@ RunOutcome run_study(const io::Study& study, const RunOptions& options) {
         return outcome;
       }
     }
-    if (writer) writer->close();
+    if (!writer) // every column failed (or every one after the resume point)
+      throw InputError(InputPlace{path.string(), "", {}, {}, {}, {}},
+                       fmt::format("no column could be computed; the first failure: {}", first_error.value_or("?")));
+    writer->close();
     io::finish_resumable(path);
   } catch (...) {
     progress.finish();

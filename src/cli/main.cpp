@@ -1,7 +1,9 @@
 // The bandstack command line: parses arguments and dispatches to the library. Nothing else.
+#include <chrono>
 #include <cstdio>
 #include <exception>
 #include <filesystem>
+#include <optional>
 #include <string>
 
 #include <unistd.h>
@@ -16,6 +18,7 @@
 #include "bandstack/io/band_set_file.hpp"
 #include "bandstack/io/demo_study.hpp"
 #include "bandstack/io/study.hpp"
+#include "bandstack/report/report.hpp"
 #include "bandstack/spectral/band_set_summary.hpp"
 
 namespace {
@@ -25,11 +28,15 @@ struct Options {
   std::string recipe;
   std::string band_set_path;
   std::string out_dir;
+  std::string result_path;
+  std::string report_path;
   std::size_t threads = 0;
   std::size_t chunk_columns = 256;
   int deflate = 0;
   bool restart = false;
   bool quiet = false;
+  bool no_report = false;
+  bool stop_on_column_error = false;
 };
 
 void add_run_options(CLI::App* command, Options& o) {
@@ -39,6 +46,18 @@ void add_run_options(CLI::App* command, Options& o) {
   command->add_option("--chunk-columns", o.chunk_columns, "Columns computed and written per block (default 256)")
       ->check(CLI::Range(1, 1000000));
   command->add_flag("--restart", o.restart, "Start afresh even if an interrupted run of the same study can be resumed");
+  command->add_flag("--no-report", o.no_report, "Do not write the HTML quick-look report next to the result file");
+  command->add_flag("--stop-on-column-error", o.stop_on_column_error,
+                    "Stop at the first column that fails (default: record it in the file and go on)");
+}
+
+// The quick-look report of a result file; prints "wrote FILE.html".
+void write_report(const std::filesystem::path& result, const std::filesystem::path& html, std::optional<double> seconds,
+                  const Options& o) {
+  bandstack::report::ReportOptions options;
+  options.run_seconds = seconds;
+  bandstack::report::write_report(result, html, options);
+  if (!o.quiet) std::printf("wrote %s\n", html.string().c_str());
 }
 
 int run(const bandstack::io::Study& study, const Options& o) {
@@ -48,15 +67,23 @@ int run(const bandstack::io::Study& study, const Options& o) {
   options.chunk_columns = o.chunk_columns;
   options.deflate_level = o.deflate;
   options.resume = !o.restart;
+  options.stop_on_column_error = o.stop_on_column_error;
   options.progress = !o.quiet && ::isatty(STDERR_FILENO) == 1;
   if (!o.quiet) options.note = [](std::string_view text) { std::fprintf(stderr, "bandstack: %.*s\n", static_cast<int>(text.size()), text.data()); };
-  const bandstack::batch::RunOutcome outcome = bandstack::batch::run_study(study, options);
+  const auto start = std::chrono::steady_clock::now();
+  bandstack::batch::RunOutcome outcome = bandstack::batch::run_study(study, options);
+  outcome.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
   if (outcome.interrupted_by != 0) {
     std::fprintf(stderr, "bandstack: interrupted after %zu of %zu columns; run the same command again to resume\n",
                  outcome.columns_written, outcome.column_count);
     return 128 + outcome.interrupted_by; // the shell's convention: 130 for SIGINT, 143 for SIGTERM
   }
   if (!o.quiet) std::fputs(bandstack::batch::format_summary(outcome).c_str(), stdout);
+  else if (outcome.failed_columns > 0)
+    std::fprintf(stderr, "bandstack: %zu of %zu columns failed (column_status and column_error in %s)\n",
+                 outcome.failed_columns, outcome.column_count, outcome.output_file.string().c_str());
+  if (!o.no_report)
+    write_report(outcome.output_file, bandstack::report::default_report_path(outcome.output_file), outcome.seconds, o);
   return 0;
 }
 
@@ -76,6 +103,10 @@ int dispatch(int argc, char** argv) {
   add_run_options(run_cmd, o);
   CLI::App* check = app.add_subcommand("check", "Validate a study file without running it");
   check->add_option("study", o.study_path, "Study file (TOML)")->required();
+
+  CLI::App* report = app.add_subcommand("report", "Write the quick-look HTML report of a result file");
+  report->add_option("result", o.result_path, "Result file (netCDF) written by bandstack")->required();
+  report->add_option("-o,--out", o.report_path, "HTML file to write (default: the result file with .html)");
 
   CLI::App* bands = app.add_subcommand("bands", "Build or inspect band sets (k-distributions)");
   bands->require_subcommand(1);
@@ -109,6 +140,12 @@ int dispatch(int argc, char** argv) {
   }
   if (*bands_info) {
     std::fputs(bandstack::spectral::describe_band_set(bandstack::io::load_band_set(o.band_set_path)).c_str(), stdout);
+    return 0;
+  }
+  if (*report) {
+    const std::filesystem::path html =
+        o.report_path.empty() ? bandstack::report::default_report_path(o.result_path) : std::filesystem::path(o.report_path);
+    write_report(o.result_path, html, std::nullopt, o);
     return 0;
   }
   if (*run_cmd) return run(bandstack::io::load_study(o.study_path), o);

@@ -28,6 +28,8 @@ struct Variable {
   bool fill_nan = false;                                          // _FillValue = NaN (missing values)
   std::size_t values_per_column = 1;                              // product of the sizes of `dims`
   std::function<void(const R&, double*)> get;                     // writes values_per_column values
+  bool of_failed_columns = false; // `get` also works for failed columns (others get missing values)
+  std::vector<signed char> flag_values;                           // CF flag_values of an i8 variable
   std::vector<double> values;
   std::string text;
 };

@@ -29,6 +29,7 @@ struct ResultFileWriter::Impl {
   std::vector<const Variable*> described;   // their descriptions
   std::vector<std::size_t> lead_shape;
   R sample_shape;                            // the sample without its values (bands, levels, options)
+  netCDF::NcVar error_var;                   // column_error: written only for failed columns
 };
 
 namespace {
@@ -84,6 +85,34 @@ void check_like(const R& shape, const R& r, std::size_t index, const std::filesy
     throw InternalError(fmt::format("column {} has other bands or results than the first column of the file", index));
 }
 
+// Characters of column_error per column (longer messages are cut).
+constexpr std::size_t error_length = 256;
+
+// column_error(<leading dims>, error_length): the message of each failed column; never written for
+// the others, so that its chunks are not even stored when no column fails.
+netCDF::NcVar define_error_variable(netCDF::NcFile& file, const std::vector<netCDF::NcDim>& lead, const Table& table,
+                                    const std::vector<std::size_t>& lead_shape) {
+  std::vector<netCDF::NcDim> dims = lead;
+  dims.push_back(file.addDim("error_length", error_length));
+  netCDF::NcVar var = file.addVar("column_error", netCDF::ncChar, dims);
+  std::vector<std::size_t> chunk(lead_shape.size(), 1);
+  chunk.push_back(error_length);
+  var.setChunking(netCDF::NcVar::nc_CHUNKED, chunk);
+  var.putAtt("long_name", "why the column failed (empty for computed columns)");
+  if (!table.coordinates.empty()) var.putAtt("coordinates", table.coordinates);
+  return var;
+}
+
+// The leading indices of flat column `flat` (row-major).
+std::vector<std::size_t> unflatten(std::size_t flat, const std::vector<std::size_t>& shape) {
+  std::vector<std::size_t> index(shape.size());
+  for (std::size_t d = shape.size(); d-- > 0;) {
+    index[d] = flat % shape[d];
+    flat /= shape[d];
+  }
+  return index;
+}
+
 FileError netcdf_error(const std::filesystem::path& path, const netCDF::exceptions::NcException& e) {
   return FileError(path.string(), std::string("netCDF error while writing: ") + first_line(e.what()));
 }
@@ -132,6 +161,7 @@ ResultFileWriter::ResultFileWriter(const std::filesystem::path& path, const R& s
         if (storage.deflate_level > 0) var.setCompression(true, true, std::clamp(storage.deflate_level, 1, 9));
       }
       if (v.fill_nan) var.setFill(true, std::numeric_limits<double>::quiet_NaN());
+      if (!v.flag_values.empty()) var.putAtt("flag_values", netCDF::ncByte, v.flag_values.size(), v.flag_values.data());
       for (const auto& [key, value] : v.attributes) var.putAtt(key, value);
       if (!v.per_column) {
         if (v.storage == Storage::text) var.putVar(v.text.data());
@@ -141,6 +171,7 @@ ResultFileWriter::ResultFileWriter(const std::filesystem::path& path, const R& s
         m.described.push_back(&v);
       }
     }
+    m.error_var = define_error_variable(m.file, lead, m.table, m.lead_shape);
     detail::put_global_attributes(m.file, info);
   } catch (const netCDF::exceptions::NcException& e) {
     throw netcdf_error(path, e);
@@ -167,6 +198,9 @@ ResultFileWriter ResultFileWriter::reopen(const std::filesystem::path& path, con
       m->vars.push_back(var);
       m->described.push_back(&v);
     }
+    m->error_var = m->file.getVar("column_error");
+    if (m->error_var.isNull())
+      throw FileError(path.string(), "the unfinished result file does not have the variable column_error as expected");
   } catch (const netCDF::exceptions::NcException& e) {
     throw FileError(path.string(), std::string("cannot reopen the unfinished result file: ") + first_line(e.what()));
   }
@@ -175,7 +209,8 @@ ResultFileWriter ResultFileWriter::reopen(const std::filesystem::path& path, con
 
 void ResultFileWriter::write_block(std::size_t first, std::span<const R> results) {
   Impl& m = *impl_;
-  for (std::size_t i = 0; i < results.size(); ++i) check_like(m.sample_shape, results[i], first + i, m.path);
+  for (std::size_t i = 0; i < results.size(); ++i)
+    if (!results[i].failed()) check_like(m.sample_shape, results[i], first + i, m.path);
   const std::vector<detail::Hyperslab> slabs = detail::flat_range_slabs(m.lead_shape, first, results.size());
   std::vector<double> data;
   std::vector<signed char> bytes;
@@ -183,7 +218,13 @@ void ResultFileWriter::write_block(std::size_t first, std::span<const R> results
     for (std::size_t k = 0; k < m.vars.size(); ++k) {
       const Variable& v = *m.described[k];
       data.resize(results.size() * v.values_per_column);
-      for (std::size_t i = 0; i < results.size(); ++i) v.get(results[i], data.data() + i * v.values_per_column);
+      for (std::size_t i = 0; i < results.size(); ++i) {
+        double* out = data.data() + i * v.values_per_column;
+        if (!results[i].failed() || v.of_failed_columns) v.get(results[i], out);
+        else // missing: NaN, or netCDF's default fill value of a byte variable (NC_FILL_BYTE)
+          std::fill(out, out + v.values_per_column,
+                    v.storage == Storage::i8 ? -127.0 : std::numeric_limits<double>::quiet_NaN());
+      }
       if (v.storage == Storage::i8) bytes.assign(data.begin(), data.end());
       std::size_t offset = 0;
       for (const detail::Hyperslab& slab : slabs) {
@@ -198,6 +239,15 @@ void ResultFileWriter::write_block(std::size_t first, std::span<const R> results
         else m.vars[k].putVar(start, count, data.data() + offset);
         offset += columns * v.values_per_column;
       }
+    }
+    for (std::size_t i = 0; i < results.size(); ++i) {
+      if (!results[i].failed()) continue;
+      std::string text = results[i].error.substr(0, error_length);
+      text.resize(error_length, '\0');
+      std::vector<std::size_t> start = unflatten(first + i, m.lead_shape), count(m.lead_shape.size(), 1);
+      start.push_back(0);
+      count.push_back(error_length);
+      m.error_var.putVar(start, count, text.data());
     }
   } catch (const netCDF::exceptions::NcException& e) {
     throw netcdf_error(m.path, e);

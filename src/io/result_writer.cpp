@@ -118,6 +118,17 @@ Table describe_result(const R& sample, const RunInfo& info, std::span<const Outp
   describe_experiments(t, sample, info.experiment_names);
   describe_attribution(t, sample);
   describe_surface(t, axes);
+  Variable status;
+  status.name = "column_status";
+  status.storage = Storage::i8;
+  status.of_failed_columns = true;
+  status.flag_values = {0, 1, 2};
+  status.attributes = {{"long_name", "whether the column was computed"},
+                       {"flag_meanings", "ok invalid_input not_converged"},
+                       {"comment", "a failed column's other variables hold missing values; column_error says why"}};
+  if (!t.coordinates.empty()) status.attributes.emplace_back("coordinates", t.coordinates);
+  status.get = [](const R& r, double* out) { *out = static_cast<double>(r.status); };
+  t.variables.push_back(std::move(status));
   return t;
 }
 

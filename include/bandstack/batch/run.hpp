@@ -24,6 +24,9 @@ struct RunOptions {
   bool progress = false;                     // show columns done, rate and time left on stderr
   std::size_t summary_columns = 1000;        // RunOutcome::summaries are kept only up to this many columns
   std::function<void(std::string_view)> note; // receives notes (resuming, starting afresh); may be empty
+  // A column that cannot be built or computed (InputError, ConvergenceError) is recorded in the file
+  // (column_status, column_error) and the run goes on; with this set, the first one stops the run.
+  bool stop_on_column_error = false;
 };
 
 // The Sun's geometry a column spec asks for (see io::SunSpec).
@@ -65,6 +68,7 @@ struct ColumnSummary {
     std::optional<double> surface_temperature_change_k; // without equilibrium: none
   };
   std::vector<Experiment> experiments;
+  std::string error; // a failed column: why (the numbers above are then not set)
 };
 
 // The summary line of a computed column.
@@ -81,6 +85,9 @@ struct RunOutcome {
   std::size_t resumed_from = 0;       // columns taken from an interrupted run's working file
   int interrupted_by = 0;             // the signal (SIGINT, SIGTERM) that stopped the run, or 0
   std::size_t columns_written = 0;    // columns in the file (all of them unless interrupted)
+  double seconds = 0.0;               // wall-clock time of the run in s, as measured by the caller (0 if not)
+  std::size_t failed_columns = 0;     // columns recorded as failed in this run (not counting resumed ones)
+  std::vector<std::string> first_failures; // the messages of the first few of them
 };
 
 // The whole job: checks the output folder is writable, builds, computes and writes the result file
@@ -90,7 +97,9 @@ struct RunOutcome {
 // (io::working_path, io::checkpoint_path), synced after every block. If the same study with the same
 // settings was interrupted before (signal, kill -9), the run continues after the last block
 // recorded. SIGINT and SIGTERM stop the run after the current block (outcome.interrupted_by set;
-// running the same command again resumes). Any error removes the working file and the record.
+// running the same command again resumes). A column that fails is recorded and the run goes on
+// (RunOptions::stop_on_column_error); a run in which every column fails is an error (the first
+// column's). Any error removes the working file and the record.
 RunOutcome run_study(const io::Study& study, const RunOptions& options);
 
 // A short plain-text table of the main results (one line per column) for the terminal; only a
