@@ -1,6 +1,7 @@
 #include "bandstack/solvers/band_longwave.hpp"
 
 #include "solvers/band_result.hpp"
+#include "solvers/longwave_many_kernel.hpp"
 
 #include "bandstack/core/error.hpp"
 #include "bandstack/solvers/heating.hpp"
@@ -47,8 +48,12 @@ void solve_band_longwave(const atmosphere::Column& column, const BandOpticsTable
 
   ws.flux_up.resize(levels * n_g);
   ws.flux_down.resize(levels * n_g);
-  longwave_fluxes_many(n_g, ws.optics.optical_depth, ws.optics.source_level, ws.optics.source_layer,
-                       ws.optics.source_surface, ws.emissivity, angles, ws.flux_up, ws.flux_down, ws.kernel_workspace);
+  // The optics are valid by construction (validated tables and column): no second pass of checks.
+  validate(angles);
+  detail::longwave_fluxes_many_kernel(n_g, n, ws.optics.optical_depth.data(), ws.optics.source_level.data(),
+                                      ws.optics.source_layer.data(), ws.optics.source_surface.data(),
+                                      ws.emissivity.data(), angles, ws.flux_up.data(), ws.flux_down.data(),
+                                      ws.kernel_workspace);
 
   result.band_lower_cm1.assign(tables.band_lower_cm1.begin(), tables.band_lower_cm1.end());
   result.band_upper_cm1.assign(tables.band_upper_cm1.begin(), tables.band_upper_cm1.end());

@@ -79,14 +79,18 @@ void check_planck_range(const BandOpticsTables& tables, double t_k, const char* 
                         lo, hi));
 }
 
-// out[g] = B_b(g) * (w0 f0[g] + w1 f1[g]): the band radiance of each g-point's band times its
-// Planck fraction interpolated linearly in T.
+// out[g] = B_b * (w0 f0[g] + w1 f1[g]) for every g-point g of every band b: the band radiance times
+// each g-point's Planck fraction interpolated linearly in T (band by band, so that the inner loop
+// needs no gather).
 BANDSTACK_VECTOR_CLONES
-void weighted_fractions(std::size_t n_g, const double* __restrict band_radiance, const std::size_t* __restrict band,
+void weighted_fractions(std::size_t n_band, const std::size_t* __restrict first, const double* __restrict band_radiance,
                         const double* __restrict f0, const double* __restrict f1, double w0, double w1,
                         double* __restrict out) {
-  for (std::size_t g = 0; g < n_g; ++g)
-    out[g] = band_radiance[band[g]] * (w0 * f0[g] + w1 * f1[g]);
+  for (std::size_t b = 0; b < n_band; ++b) {
+    const double radiance = band_radiance[b];
+    for (std::size_t g = first[b]; g < first[b + 1]; ++g)
+      out[g] = radiance * (w0 * f0[g] + w1 * f1[g]);
+  }
 }
 
 // Planck source of every g-point at t_k (already checked against the Planck range).
@@ -94,8 +98,10 @@ void gpoint_sources(const BandOpticsTables& tables, double t_k, double* band_sou
   hermite_band_radiances(tables, t_k, band_source);
   const std::size_t n_g = tables.gpoint_count();
   const Bracket t = bracket_linear(tables.planck_temperature_k, t_k);
-  weighted_fractions(n_g, band_source, tables.gpoint_band.data(), tables.planck_fraction.data() + t.lower * n_g,
-                     tables.planck_fraction.data() + t.upper * n_g, 1.0 - t.upper_weight, t.upper_weight, out);
+  const double* f0 = tables.planck_fraction.data() + t.lower * n_g;
+  const double* f1 = tables.planck_fraction.data() + t.upper * n_g;
+  weighted_fractions(tables.band_count(), tables.band_first_gpoint.data(), band_source, f0, f1, 1.0 - t.upper_weight,
+                     t.upper_weight, out);
 }
 
 // The four table rows around one layer state of one absorber and their weights (amount included).

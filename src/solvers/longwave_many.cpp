@@ -9,6 +9,7 @@
 
 #include "bandstack/core/constants.hpp"
 #include "bandstack/core/error.hpp"
+#include "solvers/longwave_many_kernel.hpp"
 #include "solvers/vector_math.hpp"
 
 #include <cmath>
@@ -52,11 +53,12 @@ void check_range(std::span<const double> values, double lo, double hi, const cha
 }
 
 // One layer for every point, downward: factors from the slant optical depth, stored for the
-// upward pass, radiance updated and its flux contribution added at the level below.
-BANDSTACK_VECTOR_CLONES
-void down_through_layer(std::size_t n, double inv_mu, double pi_w, const double* __restrict tau,
-                        const double* __restrict b_layer, const double* __restrict b_exit, double* __restrict a,
-                        double* __restrict c, double* __restrict radiance, double* __restrict flux) {
+// upward pass, radiance updated and its flux contribution added at the level below (set, in the
+// first direction: that spares zeroing the fluxes).
+template <bool first>
+inline void down_layer_loop(std::size_t n, double inv_mu, double pi_w, const double* __restrict tau,
+                            const double* __restrict b_layer, const double* __restrict b_exit, double* __restrict a,
+                            double* __restrict c, double* __restrict radiance, double* __restrict flux) {
   for (std::size_t q = 0; q < n; ++q) {
     double aq, cq;
     layer_factors(tau[q] * inv_mu, aq, cq);
@@ -65,21 +67,39 @@ void down_through_layer(std::size_t n, double inv_mu, double pi_w, const double*
     double r = radiance[q];
     r += -aq * (r - b_layer[q]) + cq * (b_exit[q] - b_layer[q]);
     radiance[q] = r;
-    flux[q] += pi_w * r;
+    if constexpr (first) flux[q] = pi_w * r;
+    else flux[q] += pi_w * r;
   }
 }
 
-// One layer for every point, upward, with the factors of the downward pass.
 BANDSTACK_VECTOR_CLONES
-void up_through_layer(std::size_t n, double pi_w, const double* __restrict b_layer, const double* __restrict b_exit,
-                      const double* __restrict a, const double* __restrict c, double* __restrict radiance,
-                      double* __restrict flux) {
+void down_through_layer(std::size_t n, double inv_mu, double pi_w, const double* __restrict tau,
+                        const double* __restrict b_layer, const double* __restrict b_exit, double* __restrict a,
+                        double* __restrict c, double* __restrict radiance, double* __restrict flux, bool first) {
+  if (first) down_layer_loop<true>(n, inv_mu, pi_w, tau, b_layer, b_exit, a, c, radiance, flux);
+  else down_layer_loop<false>(n, inv_mu, pi_w, tau, b_layer, b_exit, a, c, radiance, flux);
+}
+
+// One layer for every point, upward, with the factors of the downward pass.
+template <bool first>
+inline void up_layer_loop(std::size_t n, double pi_w, const double* __restrict b_layer, const double* __restrict b_exit,
+                          const double* __restrict a, const double* __restrict c, double* __restrict radiance,
+                          double* __restrict flux) {
   for (std::size_t q = 0; q < n; ++q) {
     double r = radiance[q];
     r += -a[q] * (r - b_layer[q]) + c[q] * (b_exit[q] - b_layer[q]);
     radiance[q] = r;
-    flux[q] += pi_w * r;
+    if constexpr (first) flux[q] = pi_w * r;
+    else flux[q] += pi_w * r;
   }
+}
+
+BANDSTACK_VECTOR_CLONES
+void up_through_layer(std::size_t n, double pi_w, const double* __restrict b_layer, const double* __restrict b_exit,
+                      const double* __restrict a, const double* __restrict c, double* __restrict radiance,
+                      double* __restrict flux, bool first) {
+  if (first) up_layer_loop<true>(n, pi_w, b_layer, b_exit, a, c, radiance, flux);
+  else up_layer_loop<false>(n, pi_w, b_layer, b_exit, a, c, radiance, flux);
 }
 
 } // namespace
@@ -115,21 +135,33 @@ void longwave_fluxes_many(std::size_t point_count, std::span<const double> tau, 
   check_range(source_layer, 0.0, largest, "planck_source_layer", n, "must be finite and >= 0");
   check_range(source_surface, 0.0, largest, "planck_source_surface", n, "must be finite and >= 0");
   check_range(surface_emissivity, 0.0, 1.0, "surface_emissivity", n, "must lie in [0, 1]");
+  detail::longwave_fluxes_many_kernel(n, layers, tau.data(), source_level.data(), source_layer.data(),
+                                      source_surface.data(), surface_emissivity.data(), angles, flux_up.data(),
+                                      flux_down.data(), workspace);
+}
 
+namespace detail {
+
+void longwave_fluxes_many_kernel(std::size_t n, std::size_t layers, const double* tau_in, const double* source_level,
+                                 const double* source_layer, const double* source_surface,
+                                 const double* surface_emissivity, const AngularQuadrature& angles, double* flux_up,
+                                 double* flux_down, LongwaveManyWorkspace& workspace) {
   const std::size_t n_dir = angles.size();
   workspace.absorptance.resize(n_dir * layers * n);
   workspace.linear_source.resize(n_dir * layers * n);
   workspace.radiance.resize(n);
   workspace.surface_radiance.resize(n);
   double* __restrict radiance = workspace.radiance.data();
-  double* __restrict up = flux_up.data();
-  double* __restrict down = flux_down.data();
-  const double* __restrict b = source_level.data();
-  const double* __restrict b_layer = source_layer.data();
-  const double* __restrict t = tau.data();
-  for (std::size_t m = 0; m < level_values; ++m) {
-    up[m] = 0.0;
-    down[m] = 0.0;
+  double* __restrict up = flux_up;
+  double* __restrict down = flux_down;
+  const double* __restrict b = source_level;
+  const double* __restrict b_layer = source_layer;
+  const double* __restrict t = tau_in;
+  // Every level is set by the first direction but these two: nothing enters at the top, and the
+  // surface's upward flux is summed below.
+  for (std::size_t q = 0; q < n; ++q) {
+    down[q] = 0.0;
+    up[layers * n + q] = 0.0;
   }
 
   // Per direction and layer, exactly the update of longwave_fluxes (longwave.cpp, which derives
@@ -144,7 +176,7 @@ void longwave_fluxes_many(std::size_t point_count, std::span<const double> tau, 
     for (std::size_t i = 0; i < layers; ++i) {
       const std::size_t at = (j * layers + i) * n;
       down_through_layer(n, inv_mu, pi_w, t + i * n, b_layer + i * n, b + (i + 1) * n, a_all + at, c_all + at, radiance,
-                         down + (i + 1) * n);
+                         down + (i + 1) * n, j == 0);
     }
   }
 
@@ -164,9 +196,11 @@ void longwave_fluxes_many(std::size_t point_count, std::span<const double> tau, 
     }
     for (std::size_t i = layers; i-- > 0;) {
       const std::size_t at = (j * layers + i) * n;
-      up_through_layer(n, pi_w, b_layer + i * n, b + i * n, a_all + at, c_all + at, radiance, up + i * n);
+      up_through_layer(n, pi_w, b_layer + i * n, b + i * n, a_all + at, c_all + at, radiance, up + i * n, j == 0);
     }
   }
 }
+
+} // namespace detail
 
 } // namespace bandstack::solvers

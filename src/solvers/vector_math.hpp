@@ -9,7 +9,7 @@
 // through an ifunc). Other compilers and targets get the baseline only. Results of the two copies
 // differ in the last bits (FMA rounding), never between threads or runs on one machine.
 #if defined(__GNUC__) && !defined(__clang__) && defined(__x86_64__) && defined(__linux__)
-#define BANDSTACK_VECTOR_CLONES __attribute__((target_clones("arch=x86-64-v3", "default")))
+#define BANDSTACK_VECTOR_CLONES __attribute__((target_clones("arch=x86-64-v4", "arch=x86-64-v3", "default")))
 #else
 #define BANDSTACK_VECTOR_CLONES
 #endif
