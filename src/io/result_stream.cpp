@@ -10,6 +10,7 @@
 #include <fmt/format.h>
 
 #include "bandstack/core/error.hpp"
+#include "bandstack/io/result_packing.hpp"
 #include "bandstack/io/result_writer.hpp"
 #include "io/flat_range.hpp"
 #include "io/result_define.hpp"
@@ -31,6 +32,20 @@ struct ResultFileWriter::Impl {
   R sample_shape;                            // the sample without its values (bands, levels, options)
   netCDF::NcVar error_var;                   // column_error: written only for failed columns
 };
+
+namespace detail {
+
+void column_values(const Variable& v, std::span<const R> results, std::vector<double>& data) {
+  data.resize(results.size() * v.values_per_column);
+  for (std::size_t i = 0; i < results.size(); ++i) {
+    double* out = data.data() + i * v.values_per_column;
+    if (!results[i].failed() || v.of_failed_columns) v.get(results[i], out);
+    else // missing: NaN, or netCDF's default fill value of a byte variable (NC_FILL_BYTE)
+      std::fill(out, out + v.values_per_column, v.storage == Storage::i8 ? -127.0 : std::numeric_limits<double>::quiet_NaN());
+  }
+}
+
+} // namespace detail
 
 namespace {
 
@@ -135,7 +150,7 @@ ResultFileWriter::ResultFileWriter(const std::filesystem::path& path, const R& s
   if (axes.empty()) throw InternalError("a result file needs at least one leading axis");
   Impl& m = *impl_;
   m.path = path;
-  m.table = detail::describe_result(sample, info, axes);
+  m.table = detail::describe_result(ResultShape::of(sample).sample(), info, axes);
   m.sample_shape = shape_of(sample);
   for (const OutputAxis& a : axes) m.lead_shape.push_back(a.size);
   try {
@@ -182,7 +197,7 @@ ResultFileWriter ResultFileWriter::reopen(const std::filesystem::path& path, con
                                           std::span<const OutputAxis> axes) {
   auto m = std::make_unique<Impl>();
   m->path = path;
-  m->table = detail::describe_result(sample, info, axes);
+  m->table = detail::describe_result(ResultShape::of(sample).sample(), info, axes);
   m->sample_shape = shape_of(sample);
   for (const OutputAxis& a : axes) m->lead_shape.push_back(a.size);
   try {
@@ -207,6 +222,47 @@ ResultFileWriter ResultFileWriter::reopen(const std::filesystem::path& path, con
   return ResultFileWriter(std::move(m));
 }
 
+namespace {
+
+// Writes the values of per-column variable k for the columns [first, first + count) (data: column
+// after column) as the hyperslabs of the flat range.
+void write_variable(ResultFileWriter::Impl& m, std::size_t k, const std::vector<detail::Hyperslab>& slabs,
+                    const double* data, std::vector<signed char>& bytes) {
+  const Variable& v = *m.described[k];
+  std::size_t total = 0;
+  for (const detail::Hyperslab& slab : slabs) {
+    std::size_t columns = 1;
+    for (std::size_t c : slab.count) columns *= c;
+    total += columns * v.values_per_column;
+  }
+  if (v.storage == Storage::i8) bytes.assign(data, data + total);
+  std::size_t offset = 0;
+  for (const detail::Hyperslab& slab : slabs) {
+    std::vector<std::size_t> start = slab.start, count = slab.count;
+    std::size_t columns = 1;
+    for (std::size_t c : slab.count) columns *= c;
+    for (const std::string& d : v.dims) {
+      start.push_back(0);
+      count.push_back(m.table.dim_size(d));
+    }
+    if (v.storage == Storage::i8) m.vars[k].putVar(start, count, bytes.data() + offset);
+    else m.vars[k].putVar(start, count, data + offset);
+    offset += columns * v.values_per_column;
+  }
+}
+
+// column_error of flat column `flat`.
+void write_error(ResultFileWriter::Impl& m, std::size_t flat, const std::string& error) {
+  std::string text = error.substr(0, error_length);
+  text.resize(error_length, '\0');
+  std::vector<std::size_t> start = unflatten(flat, m.lead_shape), count(m.lead_shape.size(), 1);
+  start.push_back(0);
+  count.push_back(error_length);
+  m.error_var.putVar(start, count, text.data());
+}
+
+} // namespace
+
 void ResultFileWriter::write_block(std::size_t first, std::span<const R> results) {
   Impl& m = *impl_;
   for (std::size_t i = 0; i < results.size(); ++i)
@@ -216,39 +272,33 @@ void ResultFileWriter::write_block(std::size_t first, std::span<const R> results
   std::vector<signed char> bytes;
   try {
     for (std::size_t k = 0; k < m.vars.size(); ++k) {
-      const Variable& v = *m.described[k];
-      data.resize(results.size() * v.values_per_column);
-      for (std::size_t i = 0; i < results.size(); ++i) {
-        double* out = data.data() + i * v.values_per_column;
-        if (!results[i].failed() || v.of_failed_columns) v.get(results[i], out);
-        else // missing: NaN, or netCDF's default fill value of a byte variable (NC_FILL_BYTE)
-          std::fill(out, out + v.values_per_column,
-                    v.storage == Storage::i8 ? -127.0 : std::numeric_limits<double>::quiet_NaN());
-      }
-      if (v.storage == Storage::i8) bytes.assign(data.begin(), data.end());
-      std::size_t offset = 0;
-      for (const detail::Hyperslab& slab : slabs) {
-        std::vector<std::size_t> start = slab.start, count = slab.count;
-        std::size_t columns = 1;
-        for (std::size_t c : slab.count) columns *= c;
-        for (const std::string& d : v.dims) {
-          start.push_back(0);
-          count.push_back(m.table.dim_size(d));
-        }
-        if (v.storage == Storage::i8) m.vars[k].putVar(start, count, bytes.data() + offset);
-        else m.vars[k].putVar(start, count, data.data() + offset);
-        offset += columns * v.values_per_column;
-      }
+      detail::column_values(*m.described[k], results, data);
+      write_variable(m, k, slabs, data.data(), bytes);
     }
-    for (std::size_t i = 0; i < results.size(); ++i) {
-      if (!results[i].failed()) continue;
-      std::string text = results[i].error.substr(0, error_length);
-      text.resize(error_length, '\0');
-      std::vector<std::size_t> start = unflatten(first + i, m.lead_shape), count(m.lead_shape.size(), 1);
-      start.push_back(0);
-      count.push_back(error_length);
-      m.error_var.putVar(start, count, text.data());
+    for (std::size_t i = 0; i < results.size(); ++i)
+      if (results[i].failed()) write_error(m, first + i, results[i].error);
+  } catch (const netCDF::exceptions::NcException& e) {
+    throw netcdf_error(m.path, e);
+  }
+}
+
+void ResultFileWriter::write_packed(const PackedBlock& block) {
+  Impl& m = *impl_;
+  std::size_t expected = 0;
+  for (const Variable* v : m.described) expected += block.count * v->values_per_column;
+  if (block.values.size() != expected || block.status.size() != block.count || block.errors.size() != block.count)
+    throw InternalError(fmt::format("a packed block of {} columns has {} values, expected {}", block.count,
+                                    block.values.size(), expected));
+  const std::vector<detail::Hyperslab> slabs = detail::flat_range_slabs(m.lead_shape, block.first, block.count);
+  std::vector<signed char> bytes;
+  try {
+    std::size_t offset = 0;
+    for (std::size_t k = 0; k < m.vars.size(); ++k) {
+      write_variable(m, k, slabs, block.values.data() + offset, bytes);
+      offset += block.count * m.described[k]->values_per_column;
     }
+    for (std::size_t i = 0; i < block.count; ++i)
+      if (block.status[i] != 0) write_error(m, block.first + i, block.errors[i]);
   } catch (const netCDF::exceptions::NcException& e) {
     throw netcdf_error(m.path, e);
   }

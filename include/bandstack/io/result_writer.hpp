@@ -12,6 +12,8 @@
 
 namespace bandstack::io {
 
+struct PackedBlock;
+
 // Provenance stored in the global attributes.
 struct RunInfo {
   std::string title;            // the study's title
@@ -63,13 +65,17 @@ public:
   // Writes the results of the columns first, first + 1, ... (flat indices). InputError if a column
   // has another level count than the sample; InternalError if its bands or variables differ.
   void write_block(std::size_t first, std::span<const batch::ColumnResult> results);
+  // Writes a block packed by a ResultPacker of the same shape, info and axes (result_packing.hpp):
+  // the same file contents as write_block of the results it was packed from.
+  void write_packed(const PackedBlock& block);
   // Flushes everything written so far to disk (nc_sync, then fsync).
   void sync();
   // Closes the file (also done by the destructor, which ignores errors).
   void close();
 
+  struct Impl; // the open file and its variable table (result_stream.cpp)
+
 private:
-  struct Impl;
   explicit ResultFileWriter(std::unique_ptr<Impl> impl);
   std::unique_ptr<Impl> impl_;
 };
