@@ -109,8 +109,8 @@ std::vector<ColumnResult> compute_block(const RunContext& plan, std::size_t firs
   return results;
 }
 
-RunContext::RunContext(const io::Study& study, const RunOptions& options)
-    : path(output_path(study, options)), expanded(checked_columns(study, options, path)),
+RunContext::RunContext(const io::Study& study, const RunOptions& options, bool writes_output)
+    : path(output_path(study, options)), expanded(checked_columns(study, options, path, writes_output)),
       total(io::column_count(expanded.study)), longwave(prepare_longwave(expanded.study)),
       shortwave(prepare_shortwave(expanded.study)), climate(checked_climate(expanded.study, longwave, shortwave)),
       info(run_info(study, longwave, shortwave)), hash(run_hash(study, expanded, options)), threads(options.threads),
@@ -119,8 +119,8 @@ RunContext::RunContext(const io::Study& study, const RunOptions& options)
 }
 
 io::ExpandedStudy RunContext::checked_columns(const io::Study& study, const RunOptions& options,
-                                              const std::filesystem::path& path) {
-  io::check_output_folder(path); // fail before the work, not after
+                                              const std::filesystem::path& path, bool writes_output) {
+  if (writes_output) io::check_output_folder(path); // fail before the work, not after
   if (options.chunk_columns == 0) throw InternalError("RunOptions::chunk_columns must be at least 1");
   return io::prepare_columns(study);
 }

@@ -20,7 +20,8 @@ namespace bandstack::batch {
 
 // Built in place (the climate set-up points into the others): not copyable or movable.
 struct RunContext {
-  RunContext(const io::Study& study, const RunOptions& options);
+  // `writes_output`: check that the result file's folder is writable (the rank that writes it).
+  RunContext(const io::Study& study, const RunOptions& options, bool writes_output = true);
   RunContext(const RunContext&) = delete;
   RunContext& operator=(const RunContext&) = delete;
 
@@ -37,7 +38,7 @@ struct RunContext {
 
 private:
   static io::ExpandedStudy checked_columns(const io::Study& study, const RunOptions& options,
-                                           const std::filesystem::path& path);
+                                           const std::filesystem::path& path, bool writes_output);
   static ClimateSetup checked_climate(const io::Study& flat, const LongwaveSetup& lw, const ShortwaveSetup& sw);
 };
 

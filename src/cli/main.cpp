@@ -1,6 +1,8 @@
 // The bandstack command line: parses arguments and dispatches to the library. Nothing else.
 #include <chrono>
 #include <cstdio>
+#include <cstdlib>
+#include <iostream>
 #include <exception>
 #include <filesystem>
 #include <optional>
@@ -12,6 +14,7 @@
 #include <fmt/format.h>
 
 #include "bandstack/batch/run.hpp"
+#include "bandstack/batch/run_mpi.hpp"
 #include "bandstack/core/error.hpp"
 #include "bandstack/core/version.hpp"
 #include "bandstack/io/band_catalog.hpp"
@@ -60,7 +63,11 @@ void write_report(const std::filesystem::path& result, const std::filesystem::pa
   if (!o.quiet) std::printf("wrote %s\n", html.string().c_str());
 }
 
+// The MPI job this process is part of (one rank without an MPI launcher); set in main.
+const bandstack::batch::MpiSession* mpi = nullptr;
+
 int run(const bandstack::io::Study& study, const Options& o) {
+  const bool other_rank = mpi != nullptr && mpi->rank() != 0; // rank 0 reports for the job
   bandstack::batch::RunOptions options;
   options.threads = o.threads;
   options.output_directory = o.out_dir;
@@ -68,10 +75,12 @@ int run(const bandstack::io::Study& study, const Options& o) {
   options.deflate_level = o.deflate;
   options.resume = !o.restart;
   options.stop_on_column_error = o.stop_on_column_error;
-  options.progress = !o.quiet && ::isatty(STDERR_FILENO) == 1;
-  if (!o.quiet) options.note = [](std::string_view text) { std::fprintf(stderr, "bandstack: %.*s\n", static_cast<int>(text.size()), text.data()); };
+  options.progress = !o.quiet && !other_rank && ::isatty(STDERR_FILENO) == 1;
+  if (!o.quiet && !other_rank) options.note = [](std::string_view text) { std::fprintf(stderr, "bandstack: %.*s\n", static_cast<int>(text.size()), text.data()); };
   const auto start = std::chrono::steady_clock::now();
-  bandstack::batch::RunOutcome outcome = bandstack::batch::run_study(study, options);
+  bandstack::batch::RunOutcome outcome = mpi != nullptr ? bandstack::batch::run_study_mpi(study, options, *mpi)
+                                                          : bandstack::batch::run_study(study, options);
+  if (other_rank) return 0;
   outcome.seconds = std::chrono::duration<double>(std::chrono::steady_clock::now() - start).count();
   if (outcome.interrupted_by != 0) {
     std::fprintf(stderr, "bandstack: interrupted after %zu of %zu columns; run the same command again to resume\n",
@@ -116,6 +125,20 @@ int dispatch(int argc, char** argv) {
   CLI::App* bands_info = bands->add_subcommand("info", "Summarise a band set");
   bands_info->add_option("band_set", o.band_set_path, "Band-set file or built-in name")->required();
 
+  // CLI11 answers an unknown command only with "A subcommand is required": name the word instead.
+  for (int i = 1; i < argc; ++i) {
+    const std::string word = argv[i];
+    if (word.empty() || word.front() == '-') continue;
+    bool known = false;
+    std::string names;
+    for (const CLI::App* command : app.get_subcommands({})) {
+      known = known || command->get_name() == word;
+      names += (names.empty() ? "" : ", ") + command->get_name();
+    }
+    if (known) break;
+    std::fprintf(stderr, "bandstack: error: unknown command '%s' (commands: %s; see --help)\n", word.c_str(), names.c_str());
+    return static_cast<int>(bandstack::ExitCode::bad_input);
+  }
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
@@ -161,7 +184,7 @@ int dispatch(int argc, char** argv) {
 
 } // namespace
 
-int main(int argc, char** argv) {
+static int main_with_errors(int argc, char** argv) {
   try {
     return dispatch(argc, argv);
   } catch (const bandstack::Error& e) {
@@ -174,4 +197,17 @@ int main(int argc, char** argv) {
     std::fprintf(stderr, "bandstack: internal error: %s\n", e.what());
     return static_cast<int>(bandstack::ExitCode::internal_error);
   }
+}
+
+int main(int argc, char** argv) {
+  const bandstack::batch::MpiSession session(argc, argv); // MPI only when started by mpirun/srun
+  mpi = &session;
+  const int code = main_with_errors(argc, argv);
+  if (code == 0) return 0;
+  if (session.size() > 1) session.abort(code); // the other ranks may be waiting for this one
+  // After a failed write (e.g. a full disk) the HDF5 library may still hold the abandoned file open, and
+  // its exit handler then crashes while flushing it: leave without exit handlers once the output is out.
+  std::cout.flush();
+  std::fflush(nullptr);
+  std::_Exit(code);
 }

@@ -286,6 +286,23 @@ void ResultFileWriter::write_packed(const PackedBlock& block) {
   Impl& m = *impl_;
   std::size_t expected = 0;
   for (const Variable* v : m.described) expected += block.count * v->values_per_column;
+  if (block.values.empty() && expected > 0 && block.status.size() == block.count &&
+      std::none_of(block.status.begin(), block.status.end(), [](signed char s) { return s == 0; })) {
+    // A block whose every column failed, packed without a shape: its values are all missing.
+    PackedBlock full = block;
+    std::vector<double> data;
+    std::vector<R> failed(block.count);
+    for (std::size_t i = 0; i < block.count; ++i) {
+      failed[i].status = static_cast<batch::ColumnStatus>(block.status[i]);
+      failed[i].error = block.errors[i];
+    }
+    for (const Variable* v : m.described) {
+      detail::column_values(*v, failed, data);
+      full.values.insert(full.values.end(), data.begin(), data.end());
+    }
+    write_packed(full);
+    return;
+  }
   if (block.values.size() != expected || block.status.size() != block.count || block.errors.size() != block.count)
     throw InternalError(fmt::format("a packed block of {} columns has {} values, expected {}", block.count,
                                     block.values.size(), expected));

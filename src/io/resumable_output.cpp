@@ -10,6 +10,8 @@
 #include <sys/stat.h>
 #include <unistd.h>
 
+#include <netcdf.h>
+
 #include "bandstack/core/error.hpp"
 
 namespace bandstack::io {
@@ -98,6 +100,12 @@ std::uint64_t fnv1a(std::string_view text, std::uint64_t seed) noexcept {
     h *= 0x100000001b3ULL; // FNV 64-bit prime (draft-eastlake-fnv)
   }
   return h;
+}
+
+bool working_file_opens(const std::filesystem::path& final_path) noexcept {
+  int id = -1;
+  if (nc_open(working_path(final_path).c_str(), NC_WRITE, &id) != NC_NOERR) return false;
+  return nc_close(id) == NC_NOERR;
 }
 
 } // namespace bandstack::io

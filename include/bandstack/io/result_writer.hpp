@@ -66,7 +66,8 @@ public:
   // has another level count than the sample; InternalError if its bands or variables differ.
   void write_block(std::size_t first, std::span<const batch::ColumnResult> results);
   // Writes a block packed by a ResultPacker of the same shape, info and axes (result_packing.hpp):
-  // the same file contents as write_block of the results it was packed from.
+  // the same file contents as write_block of the results it was packed from. A block of failed
+  // columns only may come without values (packed where no shape was known yet).
   void write_packed(const PackedBlock& block);
   // Flushes everything written so far to disk (nc_sync, then fsync).
   void sync();

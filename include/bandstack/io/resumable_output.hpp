@@ -36,6 +36,9 @@ void write_checkpoint(const std::filesystem::path& path, const Checkpoint& check
 void finish_resumable(const std::filesystem::path& final_path);
 // Removes the working file and the checkpoint record of `final_path`, if any (never throws).
 void discard_resumable(const std::filesystem::path& final_path) noexcept;
+// Whether the working file of `final_path` opens for writing as netCDF (a process killed while
+// writing can leave it damaged; then the run has to start afresh).
+[[nodiscard]] bool working_file_opens(const std::filesystem::path& final_path) noexcept;
 
 // 64-bit FNV-1a hash (Fowler, Noll and Vo; IETF draft-eastlake-fnv) of `text`, continuing from `seed`.
 [[nodiscard]] std::uint64_t fnv1a(std::string_view text, std::uint64_t seed = 0xcbf29ce484222325ULL) noexcept;
