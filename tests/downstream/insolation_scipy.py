@@ -22,21 +22,13 @@ import sys
 import numpy as np
 from scipy import integrate, optimize
 
+sys.path.insert(0, os.path.join(os.path.dirname(os.path.abspath(__file__)), "support"))
+from almanac import solar_position  # noqa: E402
+
 DAILY_TOLERANCE = 1e-10
 ANNUAL_TOLERANCE = 2e-6
 POSITION_TOLERANCE = 1e-12
 TROPICAL_YEAR = 365.2422
-
-
-def solar_position(day):
-    """Declination (rad) and (1 AU / distance)^2: The Astronomical Almanac, low-precision Sun."""
-    n = 365.5 + (day - 1.0)
-    mean_longitude = 280.460 + 0.9856474 * n
-    g = math.radians(357.528 + 0.9856003 * n)
-    longitude = math.radians(mean_longitude + 1.915 * math.sin(g) + 0.020 * math.sin(2.0 * g))
-    obliquity = math.radians(23.439 - 0.0000004 * n)
-    r = 1.00014 - 0.01671 * math.cos(g) - 0.00014 * math.cos(2.0 * g)
-    return math.asin(math.sin(obliquity) * math.sin(longitude)), 1.0 / (r * r)
 
 
 def trig_latitude(lat):
