@@ -59,20 +59,9 @@ void solve_band_longwave(const atmosphere::Column& column, const BandOpticsTable
   result.band_upper_cm1.assign(tables.band_upper_cm1.begin(), tables.band_upper_cm1.end());
   result.flux_up_by_band.resize(n_band * levels);
   result.flux_down_by_band.resize(n_band * levels);
-  for (std::size_t b = 0; b < n_band; ++b) {
-    const std::size_t first = tables.band_first_gpoint[b], last = tables.band_first_gpoint[b + 1];
-    for (std::size_t k = 0; k < levels; ++k) {
-      const double* up = ws.flux_up.data() + k * n_g;
-      const double* down = ws.flux_down.data() + k * n_g;
-      double sum_up = 0.0, sum_down = 0.0;
-      for (std::size_t g = first; g < last; ++g) {
-        sum_up += up[g];
-        sum_down += down[g];
-      }
-      result.flux_up_by_band[b * levels + k] = sum_up;
-      result.flux_down_by_band[b * levels + k] = sum_down;
-    }
-  }
+  detail::band_sums(ws.flux_up.data(), levels, n_g, tables.band_first_gpoint.data(), n_band, result.flux_up_by_band.data());
+  detail::band_sums(ws.flux_down.data(), levels, n_g, tables.band_first_gpoint.data(), n_band,
+                    result.flux_down_by_band.data());
   finish_longwave_result(column, result);
 }
 
