@@ -3,6 +3,7 @@
 #include "bandstack/core/error.hpp"
 #include "bandstack/core/version.hpp"
 #include "bandstack/io/atomic_output.hpp"
+#include "spectral/netcdf_truncation.hpp"
 
 #include <algorithm>
 #include <chrono>
@@ -186,6 +187,21 @@ public:
     fail(name, "attribute is not text");
   }
 
+  // Values of variable `name` on `dims`; a count no band set could have (a damaged file) is refused before
+  // anything is allocated for it.
+  std::size_t value_count(const std::string& name, const std::vector<std::string>& dims) const {
+    constexpr std::size_t max_values = std::size_t{1} << 27; // 1 GiB of doubles
+    std::size_t size = 1;
+    for (const std::string& d : dims) {
+      const std::size_t n = dim(d);
+      if (n != 0 && size > max_values / n)
+        fail(name, fmt::format("has more than {} values (dimensions {}): not a plausible band set", max_values,
+                               fmt::join(dims, " x ")));
+      size *= n;
+    }
+    return size;
+  }
+
   std::vector<double> doubles(const std::string& name, const std::vector<std::string>& dims, const char* units) const {
     const NcVar v = var(name, dims);
     const auto type = v.getType().getTypeClass();
@@ -195,9 +211,7 @@ public:
       if (!u) fail(name, fmt::format("units attribute missing, expected \"{}\"", units));
       if (*u != units) fail(name, fmt::format("units \"{}\", expected \"{}\"", *u, units));
     }
-    std::size_t size = 1;
-    for (const std::string& d : dims)
-      size *= dim(d);
+    const std::size_t size = value_count(name, dims);
     std::vector<double> values(size);
     if (size > 0) v.getVar(values.data());
     return values;
@@ -207,7 +221,7 @@ public:
     const NcVar v = var(name, dims);
     if (v.getType().getTypeClass() != NcType::nc_CHAR) fail(name, "must be a character array");
     const std::size_t n = dim(dims[0]), length = dim(dims[1]);
-    std::vector<char> chars(n * length);
+    std::vector<char> chars(value_count(name, dims));
     if (!chars.empty()) v.getVar(chars.data());
     std::vector<std::string> out;
     for (std::size_t i = 0; i < n; ++i) {
@@ -312,6 +326,7 @@ BandSet read_band_set(const std::filesystem::path& path) {
   std::error_code ec;
   if (!std::filesystem::exists(path, ec)) throw FileError(path.string(), "the band-set file does not exist");
   if (std::filesystem::is_directory(path, ec)) throw FileError(path.string(), "is a folder, not a band-set file");
+  spectral::detail::check_classic_file(path, path.string());
   BandSet set;
   try {
     const NcFile file(path.string(), NcFile::read);

@@ -219,6 +219,7 @@ Study parse_study(std::string_view text, const std::string& file_name) {
     if (!p.removed_shortwave_bands.empty() && study.shortwave.method != ShortwaveMethod::bands)
       r.problem(fmt::format("experiments[{}].remove_shortwave_bands needs the shortwave method \"bands\"", i));
   }
+  detail::check_column_count(r, study);
   const bool from_file = std::any_of(study.columns.begin(), study.columns.end(),
                                      [](const ColumnSpec& c) { return !c.profile_file.empty(); });
   if (from_file && study.columns.size() > 1)
@@ -232,6 +233,8 @@ Study parse_study(std::string_view text, const std::string& file_name) {
 }
 
 Study load_study(const std::filesystem::path& path) {
+  std::error_code ec;
+  if (std::filesystem::is_directory(path, ec)) throw FileError(path.string(), "is a folder, not a study file");
   std::ifstream in(path, std::ios::binary);
   if (!in) throw FileError(path.string(), "cannot open the study file for reading");
   std::ostringstream text;

@@ -17,6 +17,12 @@ void read_experiments(TomlReader& r, const toml::table& root, Study& study);
 // [[sweeps]] -> study.sweeps (keys from io/sweep.hpp, values in their ranges, no key twice).
 void read_sweeps(TomlReader& r, const toml::table& root, Study& study);
 
+// The built-in columns times every sweep's values must stay within max_study_columns (a run of more
+// columns cannot finish; an absurd sweep is refused at once instead of being counted through).
+// Profile-file columns are counted when the file is read (io/sweep.hpp).
+inline constexpr double max_study_columns = 1e8;
+void check_column_count(TomlReader& r, const Study& study);
+
 // [attribution] -> study.attribution.
 void read_attribution(TomlReader& r, const toml::table& root, Study& study);
 

@@ -1,3 +1,4 @@
+#include <algorithm>
 #include <cmath>
 #include <set>
 #include <string>
@@ -81,6 +82,18 @@ void read_sweeps(TomlReader& r, const toml::table& root, Study& study) {
     }
     study.sweeps.push_back(std::move(axis));
   }
+}
+
+void check_column_count(TomlReader& r, const Study& study) {
+  double count = static_cast<double>(std::max<std::size_t>(study.columns.size(), 1));
+  std::string product = std::to_string(study.columns.size()) + " columns";
+  for (const SweepAxis& sweep : study.sweeps) {
+    count *= static_cast<double>(sweep.values.size());
+    product += fmt::format(" x {} values of {}", sweep.values.size(), sweep.key);
+  }
+  if (count > max_study_columns)
+    r.problem(fmt::format("[[sweeps]]: {} make {:.0f} columns to compute, more than the {:.0f} one run may have", product,
+                          count, max_study_columns));
 }
 
 } // namespace bandstack::io::detail

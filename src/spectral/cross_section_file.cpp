@@ -14,6 +14,7 @@
 #include "bandstack/core/version.hpp"
 #include "bandstack/io/atomic_output.hpp"
 #include "spectral/netcdf_checks.hpp"
+#include "spectral/netcdf_truncation.hpp"
 
 namespace bandstack::spectral {
 
@@ -23,6 +24,9 @@ namespace {
 
 constexpr const char* suffix = "_mass_absorption_coefficient";
 constexpr int format_version = 1;
+// Values one coordinate or one absorber's table may have (2 GiB of doubles): a damaged file's sizes are
+// refused before anything is allocated for them.
+constexpr std::size_t max_values = std::size_t{1} << 28;
 
 std::string variable_name(Absorber a) { return std::string(absorber_name(a)) + suffix; }
 
@@ -68,6 +72,7 @@ std::vector<double> read_coordinate(const netCDF::NcFile& nc, const std::string&
   } else if (u != "K") {
     fail(file, name, fmt::format("units \"{}\" not accepted (expected \"K\")", *units));
   }
+  if (dim.getSize() > max_values) fail(file, name, fmt::format("has {} values, more than {}", dim.getSize(), max_values));
   std::vector<double> values(dim.getSize());
   if (!values.empty()) var.getVar(values.data());
   for (double& v : values) v *= factor;
@@ -116,6 +121,7 @@ void validate(const CrossSectionTable& table, const std::string& file) {
 CrossSectionTable read_cross_section_file(const std::filesystem::path& path) {
   const std::string file = path.string();
   if (!std::filesystem::is_regular_file(path)) throw FileError(file, "no such cross-section file");
+  check_classic_file(path, file);
   CrossSectionTable table;
   try {
     netCDF::NcFile nc(file, netCDF::NcFile::read);
@@ -158,6 +164,11 @@ CrossSectionTable read_cross_section_file(const std::filesystem::path& path) {
       const auto factor = coefficient_factor(*a, normalise_units(*units));
       if (!factor) fail(file, name, fmt::format("units \"{}\" not accepted (expected {})", *units, accepted_units(*a)));
 
+      const double count = static_cast<double>(table.temperature_k.size()) * static_cast<double>(table.pressure_pa.size()) *
+                           static_cast<double>(table.wavenumber_cm1.size());
+      if (count > static_cast<double>(max_values))
+        fail(file, name, fmt::format("has {:.0f} values (temperature x pressure x wavenumber), more than the {} one absorber may have",
+                                     count, max_values));
       std::vector<double> values(table.values_per_absorber());
       var.getVar(values.data());
       if (const auto fill = fill_value(ncid, var.getId())) {

@@ -1,0 +1,8 @@
+// libFuzzer target: one input = the bytes of a netCDF profile file written to a scratch file.
+// Expected rejections (InputError, FileError) are fine; anything else is a bug (see fuzz_entry.hpp).
+#include "fuzz_entry.hpp"
+
+extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
+  (void)bandstack::fuzz::feed(bandstack::fuzz::Target::profile_file, data, size);
+  return 0;
+}

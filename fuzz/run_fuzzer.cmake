@@ -1,0 +1,38 @@
+# Fuzzes one target for a bounded time (ctest test fuzz_<target>); prints the executions and fails on any
+# crash, sanitizer report, unexpected exception, timeout or memory over the limit.
+# -D: FUZZER (program), FUZZ_TARGET (name), SOURCE_DIR (fuzz/), WORK_DIR (scratch), SECONDS, RSS_MB.
+file(REMOVE_RECURSE ${WORK_DIR})
+file(MAKE_DIRECTORY ${WORK_DIR}/corpus)
+set(arguments -max_total_time=${SECONDS} -rss_limit_mb=${RSS_MB} -malloc_limit_mb=${RSS_MB} -timeout=30
+    -max_len=65536 -print_final_stats=1 -artifact_prefix=${WORK_DIR}/)
+if(FUZZ_TARGET STREQUAL "study")
+  list(APPEND arguments -dict=${SOURCE_DIR}/study.dict)
+else()
+  list(APPEND arguments -dict=${SOURCE_DIR}/netcdf.dict)
+endif()
+# New inputs go to the first folder (scratch); the kept seeds and regressions are read only.
+set(folders ${WORK_DIR}/corpus ${SOURCE_DIR}/corpus/${FUZZ_TARGET})
+if(EXISTS ${SOURCE_DIR}/regressions/${FUZZ_TARGET})
+  list(APPEND folders ${SOURCE_DIR}/regressions/${FUZZ_TARGET})
+endif()
+execute_process(COMMAND ${FUZZER} ${arguments} ${folders} RESULT_VARIABLE result OUTPUT_VARIABLE out ERROR_VARIABLE out)
+file(WRITE ${WORK_DIR}/fuzz.log "${out}")
+string(REGEX MATCH "stat::number_of_executed_units: *([0-9]+)" _ "${out}")
+set(executions ${CMAKE_MATCH_1})
+string(REGEX MATCH "Done [0-9]+ runs in ([0-9]+) second" _ "${out}")
+set(seconds ${CMAKE_MATCH_1})
+file(GLOB corpus ${WORK_DIR}/corpus/*)
+list(LENGTH corpus corpus_size)
+if(NOT result EQUAL 0)
+  file(GLOB artifacts ${WORK_DIR}/crash-* ${WORK_DIR}/leak-* ${WORK_DIR}/timeout-* ${WORK_DIR}/oom-*)
+  string(LENGTH "${out}" length)
+  math(EXPR start "${length} - 6000")
+  if(start LESS 0)
+    set(start 0)
+  endif()
+  string(SUBSTRING "${out}" ${start} -1 tail)
+  message("${tail}")
+  message(FATAL_ERROR "fuzz ${FUZZ_TARGET}: FAILED after ${executions} executions (exit ${result}); input kept in: ${artifacts}\n"
+          "Fix the bug, then copy the input into fuzz/regressions/${FUZZ_TARGET}/ (replayed by fuzz_regressions_test).")
+endif()
+message("fuzz ${FUZZ_TARGET}: ${executions} executions in ${seconds} s, no crash; ${corpus_size} new corpus inputs")
