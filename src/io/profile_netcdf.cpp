@@ -1,5 +1,6 @@
 // netCDF access for the profile-file reader (C API: attributes of any type and whole-variable reads).
 #include "io/profile_netcdf.hpp"
+#include "spectral/netcdf_truncation.hpp"
 
 #include "bandstack/core/error.hpp"
 
@@ -25,6 +26,7 @@ std::optional<std::vector<double>> numeric_attribute(int ncid, int varid, const 
 } // namespace
 
 NetcdfFile::NetcdfFile(const std::string& path) : path_(path) {
+  spectral::detail::check_classic_file(path, path); // a damaged or truncated classic header, before the library
   const int status = nc_open(path.c_str(), NC_NOWRITE, &ncid_);
   if (status != NC_NOERR)
     throw FileError(path, std::string("cannot read as a netCDF profile file: ") + first_line(nc_strerror(status)));

@@ -1,10 +1,12 @@
 // io::ResultFileWriter: defines a result file once, then fills it block of columns by block.
 #include <algorithm>
 #include <cerrno>
+#include <cstdint>
 #include <cstring>
 #include <limits>
 
 #include <fcntl.h>
+#include <sys/statvfs.h>
 #include <unistd.h>
 
 #include <fmt/format.h>
@@ -128,8 +130,30 @@ std::vector<std::size_t> unflatten(std::size_t flat, const std::vector<std::size
   return index;
 }
 
+// The file a working file ".<name>.partial" stands for (the path itself for any other name).
+std::filesystem::path final_name(const std::filesystem::path& path) {
+  const std::string name = path.filename().string();
+  const std::string suffix = ".partial";
+  if (name.size() > suffix.size() + 1 && name.front() == '.' && name.ends_with(suffix))
+    return path.parent_path() / name.substr(1, name.size() - 1 - suffix.size());
+  return path;
+}
+
+// A write error: HDF5 reports a full disk only as "HDF error"; say what happened when the folder
+// has no room left (or errno says so), naming the result file.
 FileError netcdf_error(const std::filesystem::path& path, const netCDF::exceptions::NcException& e) {
-  return FileError(path.string(), std::string("netCDF error while writing: ") + first_line(e.what()));
+  const int error = errno;
+  struct statvfs fs {};
+  const std::filesystem::path folder = path.has_parent_path() ? path.parent_path() : std::filesystem::path(".");
+  const bool full = error == ENOSPC || error == EDQUOT ||
+                    (::statvfs(folder.c_str(), &fs) == 0 && fs.f_bavail * fs.f_frsize < (std::uint64_t{1} << 20));
+  if (full)
+    return FileError(final_name(path).string(),
+                     fmt::format("the disk is full: no space left in '{}' for the result (its working file {} is "
+                                 "removed)",
+                                 folder.string(), path.filename().string()));
+  return FileError(final_name(path).string(), fmt::format("netCDF error while writing {}: {}", path.filename().string(),
+                                                          first_line(e.what())));
 }
 
 } // namespace

@@ -8,6 +8,7 @@
 #include "bandstack/core/error.hpp"
 #include "bandstack/core/units.hpp"
 #include "bandstack/io/profile_sun.hpp"
+#include "io/study_climate.hpp"
 
 namespace bandstack::io {
 
@@ -64,6 +65,12 @@ void set_column_value(ColumnSpec& spec, std::string_view key, double value) {
 
 namespace {
 
+std::size_t sweep_points(const Study& study) {
+  std::size_t n = 1;
+  for (const SweepAxis& sweep : study.sweeps) n *= sweep.values.size();
+  return n;
+}
+
 // A study whose one column is a profile file: the file's columns, with its leading dimensions as
 // the output axes (a file without leading dimensions gives one "column"). The file is opened and
 // checked, its values are read later, block by block.
@@ -80,6 +87,16 @@ ExpandedStudy expand_profile_file(const Study& study) {
   out.profile = std::make_shared<const ProfileReader>(spec.profile_file, spec.profile_variables, defaults);
   out.study = study;
   out.study.columns.front().profile_column_count = out.profile->column_count();
+  // As the study parser limits built-in columns x sweeps (io/study_climate.hpp): a file whose
+  // dimensions promise more columns than a run can compute is refused at once.
+  const double columns = static_cast<double>(out.profile->column_count()) * static_cast<double>(sweep_points(study));
+  if (columns > detail::max_study_columns)
+    throw InputError(InputPlace{spec.profile_file.string(), "", {}, {}, {}, {}},
+                     fmt::format("the profile file has {} columns{}: {:.0f} columns to compute, more than the {:.0f} one "
+                                 "run may have",
+                                 out.profile->column_count(),
+                                 study.sweeps.empty() ? "" : fmt::format(" x {} sweep values", sweep_points(study)), columns,
+                                 detail::max_study_columns));
   for (const LeadingAxis& a : out.profile->axes())
     out.axes.push_back(OutputAxis{a.name, a.size, a.values, {}, a.attributes});
   if (out.axes.empty()) out.axes.push_back(OutputAxis{"column", 1, {}, {spec.name}, {}});
@@ -101,12 +118,6 @@ ExpandedStudy expand_profile_file(const Study& study) {
                                   {{"units", std::string(info->units)}, {"long_name", std::string(info->long_name)}}});
   }
   return out;
-}
-
-std::size_t sweep_points(const Study& study) {
-  std::size_t n = 1;
-  for (const SweepAxis& sweep : study.sweeps) n *= sweep.values.size();
-  return n;
 }
 
 bool from_profile_file(const Study& study) {
