@@ -61,4 +61,4 @@ void BM_RunEquilibriumColumns(benchmark::State& state) { run(state, true); }
 BENCHMARK(BM_RunColumns)->Args({1000, 1})->Args({1000, 2})->Unit(benchmark::kMillisecond)->UseRealTime()->MinTime(2.0);
 // The issue-8 batch: 10,000 columns with their result file, once each (a few seconds per run).
 BENCHMARK(BM_RunColumns)->Args({10000, 1})->Args({10000, 2})->Unit(benchmark::kMillisecond)->UseRealTime()->Iterations(1);
-BENCHMARK(BM_RunEquilibriumColumns)->Args({16, 1})->Args({16, 2})->Unit(benchmark::kMillisecond)->UseRealTime()->MinTime(2.0);
+BENCHMARK(BM_RunEquilibriumColumns)->Args({64, 1})->Args({64, 2})->Unit(benchmark::kMillisecond)->UseRealTime()->MinTime(2.0);

@@ -9,6 +9,7 @@
 #include "bandstack/core/units.hpp"
 #include "bandstack/io/sweep.hpp"
 #include "batch/climate_setup.hpp"
+#include "batch/column_cache.hpp"
 #include "batch/column_blocks.hpp"
 #include "batch/longwave_setup.hpp"
 #include "batch/shortwave_setup.hpp"
@@ -56,7 +57,7 @@ atmosphere::Column build_column(const io::Study& study, std::size_t i, const atm
       column.name = spec.name;
       apply_swept_values(spec, column);
     } else {
-      column = atmosphere::make_column(spec.settings, study.grid, spec.name);
+      column = cached_make_column(spec.settings, study.grid, spec.name);
     }
     if (spec.sun.from_file && !file_sun) throw InternalError(fmt::format("column {}: its Sun was not read", i));
     column.sun = sun_geometry(spec.sun.from_file ? *file_sun : spec.sun);

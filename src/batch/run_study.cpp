@@ -2,6 +2,7 @@
 // resumable result file (working file + checkpoint record, see io/resumable_output.hpp).
 #include <algorithm>
 #include <atomic>
+#include <future>
 #include <optional>
 
 #include <fmt/format.h>
@@ -42,10 +43,17 @@ RunOutcome run_study(const io::Study& study, const RunOptions& options) {
   // a block may have failed whole. They are written as soon as a column succeeds.
   std::vector<std::pair<std::size_t, std::vector<ColumnResult>>> pending;
   std::optional<std::string> first_error;
+  // A block is written (and synced, and recorded) on a thread of its own while the next is computed.
+  // Only that thread calls netCDF meanwhile: a block that reads a profile file waits for it first.
+  std::future<void> writing;
+  const auto wait_for_writing = [&writing] {
+    if (writing.valid()) writing.get();
+  };
   std::size_t first = start;
   try {
     while (first < total) {
       const std::size_t count = std::min(options.chunk_columns, total - first);
+      if (expanded.profile) wait_for_writing();
       std::vector<ColumnResult> results = compute_block(plan, first, count, progress, done);
       for (const ColumnResult& r : results) {
         if (!r.failed()) continue;
@@ -88,15 +96,19 @@ RunOutcome run_study(const io::Study& study, const RunOptions& options) {
       if (!writer) writer.emplace(io::working_path(path), *sample, info, expanded.axes, storage);
       for (const auto& [block_first, block] : pending) writer->write_block(block_first, block);
       pending.clear();
-      writer->write_block(first, results);
-      writer->sync();
-      first += count;
-      io::Checkpoint now = record;
-      now.columns_written = first;
-      io::write_checkpoint(io::checkpoint_path(path), now);
       if (keep)
         for (const ColumnResult& r : results) outcome.summaries.push_back(summarise(r));
+      wait_for_writing();
+      writing = std::async(std::launch::async, [&writer, &path, record, block = std::move(results), first, count] {
+        writer->write_block(first, block);
+        writer->sync();
+        io::Checkpoint now = record;
+        now.columns_written = first + count;
+        io::write_checkpoint(io::checkpoint_path(path), now);
+      });
+      first += count;
       if (const int signal = InterruptGuard::signal_received(); signal != 0 && first < total) {
+        wait_for_writing();
         progress.finish();
         outcome.interrupted_by = signal;
         outcome.columns_written = first;
@@ -104,12 +116,17 @@ RunOutcome run_study(const io::Study& study, const RunOptions& options) {
         return outcome;
       }
     }
+    wait_for_writing();
     if (!writer) // every column failed (or every one after the resume point)
       throw InputError(InputPlace{path.string(), "", {}, {}, {}, {}},
                        fmt::format("no column could be computed; the first failure: {}", first_error.value_or("?")));
     writer->close();
     io::finish_resumable(path);
   } catch (...) {
+    try {
+      wait_for_writing(); // the writer must outlive its thread; the first error is the one reported
+    } catch (...) { // NOLINT(bugprone-empty-catch)
+    }
     progress.finish();
     writer.reset();
     io::discard_resumable(path);
