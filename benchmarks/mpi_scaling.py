@@ -8,7 +8,8 @@ columns each driven to radiative-convective equilibrium; each one process on 1 t
 mpirun with 1 and 2 ranks of 1 thread each (--oversubscribe; as root it sets OMPI_ALLOW_RUN_AS_ROOT).
 Prints columns per second, the speed-up of 2 ranks over 1, and, from the measured seconds per column
 per core, an estimate of a 1 x 1 degree global grid (64,800 columns) x 10 scenarios on N nodes of
-C cores, at the parallel efficiency measured here (an assumption for other machines: say so).
+32 cores, at the parallel efficiency measured here (an assumption for other machines), with the
+size of the result files (rank 0 writes them all).
 """
 import argparse
 import os
@@ -56,19 +57,20 @@ def measure(exe, count, equilibrium, folder):
     single = timed(run, folder)
     one = timed(["mpirun", "-np", "1", "--oversubscribe"] + run, folder)
     two = timed(["mpirun", "-np", "2", "--oversubscribe"] + run, folder)
-    return single, one, two
+    size = os.path.getsize(os.path.join(folder, "scaling.nc"))
+    return single, one, two, size / count
 
 
 def main():
     parser = argparse.ArgumentParser()
     parser.add_argument("exe")
-    parser.add_argument("--columns", type=int, default=4000)
-    parser.add_argument("--equilibrium-columns", type=int, default=96)
+    parser.add_argument("--columns", type=int, default=8000)
+    parser.add_argument("--equilibrium-columns", type=int, default=256)
     args = parser.parse_args()
     grid, scenarios = 64800, 10
     with tempfile.TemporaryDirectory() as folder:
         for equilibrium, count in ((False, args.columns), (True, args.equilibrium_columns)):
-            single, one, two = measure(os.path.abspath(args.exe), count, equilibrium, folder)
+            single, one, two, bytes_per_column = measure(os.path.abspath(args.exe), count, equilibrium, folder)
             kind = "equilibrium columns" if equilibrium else "plain columns (fluxes)"
             speedup = one / two
             per_column = single / count  # core-seconds per column on this machine
@@ -77,7 +79,9 @@ def main():
                   f"(efficiency {50 * speedup:.0f} %)")
             core_hours = grid * scenarios * per_column / 3600
             print(f"  {grid} columns x {scenarios} scenarios = {core_hours:.1f} core-hours at "
-                  f"{per_column * 1e3:.2f} ms per column per core")
+                  f"{per_column * 1e3:.2f} ms per column per core; result files "
+                  f"{grid * scenarios * bytes_per_column / 1e9:.0f} GB ({bytes_per_column / 1e3:.0f} kB per column, "
+                  "written by rank 0: the file system's write rate bounds the run)")
             for nodes in (1, 4, 16, 64):
                 cores = nodes * 32
                 efficiency = min(1.0, speedup / 2)
