@@ -1,3 +1,4 @@
+#include <cstddef>
 #include "report/netcdf_reader.hpp"
 
 #include <netcdf.h>
@@ -20,6 +21,12 @@ NetcdfReader::NetcdfReader(std::string path) : path_(std::move(path)) {
     ncid_ = -1;
     throw FileError(path_, "cannot open as a netCDF result file: " + first_line(nc_strerror(status)));
   }
+  // The report reads a few columns of many chunked variables: a small chunk cache per variable keeps
+  // its memory bounded (netCDF's default would keep up to several MiB of chunks per variable). Not
+  // available for classic files, where it does not matter.
+  int count = 0;
+  if (nc_inq_nvars(ncid_, &count) == NC_NOERR)
+    for (int v = 0; v < count; ++v) (void)nc_set_var_chunk_cache(ncid_, v, std::size_t{1} << 20, 13, 0.75f);
 }
 
 NetcdfReader::~NetcdfReader() {

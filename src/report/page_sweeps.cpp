@@ -13,6 +13,9 @@ namespace bandstack::report {
 namespace {
 
 constexpr std::size_t max_lines = 6;
+// Points per line: a sweep of many values is drawn at this many evenly spread values (a line of
+// 100,000 points would make the page tens of megabytes and show nothing more).
+constexpr std::size_t max_line_points = 512;
 
 // Position of the sampled grid: multiplier of each leading axis in the sampled, row-major order.
 std::vector<std::size_t> sample_multipliers(const ResultData& data) {
@@ -85,9 +88,9 @@ std::string line_charts(const ResultData& data, std::size_t d) {
       } else {
         s.name = shown.title;
       }
-      s.x = xs;
-      for (std::size_t i = 0; i < xs.size(); ++i) {
+      for (std::size_t i : spread(xs.size(), max_line_points)) {
         const std::size_t idx = i * m[d] + (line_axis < data.axes.size() ? l * m[line_axis] : 0);
+        s.x.push_back(xs[i]);
         s.y.push_back(shown.field->values[idx]);
       }
       c.series.push_back(std::move(s));
