@@ -109,6 +109,17 @@ std::vector<ColumnResult> compute_block(const RunContext& plan, std::size_t firs
   return results;
 }
 
+void count_failure(RunOutcome& outcome, const std::string& error) {
+  ++outcome.failed_columns;
+  if (outcome.first_failures.size() < max_failures_kept) outcome.first_failures.push_back(error);
+}
+
+void fail_without_columns(const std::filesystem::path& path, const RunOutcome& outcome) {
+  throw InputError(InputPlace{path.string(), "", {}, {}, {}, {}},
+                   fmt::format("no column could be computed; the first failure: {}",
+                               outcome.first_failures.empty() ? std::string("?") : outcome.first_failures.front()));
+}
+
 RunContext::RunContext(const io::Study& study, const RunOptions& options, bool writes_output)
     : path(output_path(study, options)), expanded(checked_columns(study, options, path, writes_output)),
       total(io::column_count(expanded.study)), longwave(prepare_longwave(expanded.study)),

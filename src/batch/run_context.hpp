@@ -59,4 +59,11 @@ void note(const RunOptions& options, const std::string& text);
 // Failure messages kept in RunOutcome::first_failures.
 inline constexpr std::size_t max_failures_kept = 5;
 
+// Counts a failed column in `outcome`, keeping its message if it is among the first few.
+void count_failure(RunOutcome& outcome, const std::string& error);
+
+// The error of a run in which no column could be computed (InputError naming the result file and
+// the first failure).
+[[noreturn]] void fail_without_columns(const std::filesystem::path& path, const RunOutcome& outcome);
+
 } // namespace bandstack::batch

@@ -42,7 +42,6 @@ RunOutcome run_study(const io::Study& study, const RunOptions& options) {
   // Blocks computed before the file could be defined: it needs one computed column as a sample, and
   // a block may have failed whole. They are written as soon as a column succeeds.
   std::vector<std::pair<std::size_t, std::vector<ColumnResult>>> pending;
-  std::optional<std::string> first_error;
   // A block is written (and synced, and recorded) on a thread of its own while the next is computed.
   // Only that thread calls netCDF meanwhile: a block that reads a profile file waits for it first.
   std::future<void> writing;
@@ -55,12 +54,8 @@ RunOutcome run_study(const io::Study& study, const RunOptions& options) {
       const std::size_t count = std::min(options.chunk_columns, total - first);
       if (expanded.profile) wait_for_writing();
       std::vector<ColumnResult> results = compute_block(plan, first, count, progress, done);
-      for (const ColumnResult& r : results) {
-        if (!r.failed()) continue;
-        if (outcome.first_failures.size() < max_failures_kept) outcome.first_failures.push_back(r.error);
-        ++outcome.failed_columns;
-        if (!first_error) first_error = r.error;
-      }
+      for (const ColumnResult& r : results)
+        if (r.failed()) count_failure(outcome, r.error);
       const auto sample = std::find_if(results.begin(), results.end(), [](const ColumnResult& r) { return !r.failed(); });
       if (!writer && sample == results.end()) { // nothing to define the file from yet
         if (keep)
@@ -118,8 +113,7 @@ RunOutcome run_study(const io::Study& study, const RunOptions& options) {
     }
     wait_for_writing();
     if (!writer) // every column failed (or every one after the resume point)
-      throw InputError(InputPlace{path.string(), "", {}, {}, {}, {}},
-                       fmt::format("no column could be computed; the first failure: {}", first_error.value_or("?")));
+      fail_without_columns(path, outcome);
     writer->close();
     io::finish_resumable(path);
   } catch (...) {

@@ -126,14 +126,10 @@ io::PackedBlock pack_results(std::optional<io::ResultPacker>& packer, std::optio
 int exit_code_of(const std::exception_ptr& error) {
   try {
     std::rethrow_exception(error);
-  } catch (const InputError&) {
-    return 2;
-  } catch (const FileError&) {
-    return 2;
-  } catch (const ConvergenceError&) {
-    return 2;
+  } catch (const Error& e) {
+    return static_cast<int>(e.exit_code());
   } catch (...) {
-    return 1;
+    return static_cast<int>(ExitCode::internal_error);
   }
 }
 
@@ -262,9 +258,7 @@ public:
         outcome.columns_written = std::min(prefix_ * block_, run_.total);
         return outcome;
       }
-      if (!writer_)
-        throw InputError(InputPlace{run_.path.string(), "", {}, {}, {}, {}},
-                         fmt::format("no column could be computed; the first failure: {}", first_error_.value_or("?")));
+      if (!writer_) fail_without_columns(run_.path, outcome);
       writer_->close();
       io::finish_resumable(run_.path);
     } catch (...) {
@@ -335,9 +329,7 @@ private:
   void accept(io::PackedBlock block) {
     for (std::size_t i = 0; i < block.count; ++i) {
       if (block.status[i] == 0) continue;
-      ++outcome_->failed_columns;
-      if (outcome_->first_failures.size() < max_failures_kept) outcome_->first_failures.push_back(block.errors[i]);
-      if (!first_error_) first_error_ = block.errors[i];
+      count_failure(*outcome_, block.errors[i]);
     }
     done_ += block.count;
     progress_->update(done_);
@@ -390,7 +382,6 @@ private:
   std::optional<io::ResultPacker> packer_;
   std::optional<io::ResultFileWriter> writer_;
   std::vector<io::PackedBlock> pending_;
-  std::optional<std::string> first_error_;
   Progress* progress_ = nullptr;
   RunOutcome* outcome_ = nullptr;
 };

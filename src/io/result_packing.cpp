@@ -46,6 +46,16 @@ ColumnResult ResultShape::sample() const {
   return r;
 }
 
+void ResultShape::check(const ColumnResult& r, std::size_t flat_index, const std::string& file) const {
+  const ResultShape s = of(r);
+  if (s.layers != layers)
+    throw InputError(InputPlace{file, "level", {}, {}, static_cast<long>(flat_index), {}},
+                     fmt::format("all columns of one file need the same number of levels ({} here, {} in the others)",
+                                 s.layers + 1, layers + 1));
+  if (s.encode() != encode())
+    throw InternalError(fmt::format("column {} has other bands or results than the first column of the file", flat_index));
+}
+
 namespace {
 
 void put_list(std::vector<double>& out, const std::vector<double>& values) {
@@ -112,8 +122,10 @@ ResultShape ResultShape::decode(std::span<const double> numbers) {
 namespace {
 
 template <class T> void put_raw(std::vector<char>& out, const T* data, std::size_t n) {
-  const auto* bytes = reinterpret_cast<const char*>(data);
-  out.insert(out.end(), bytes, bytes + n * sizeof(T));
+  if (n == 0) return;
+  const std::size_t at = out.size();
+  out.resize(at + n * sizeof(T));
+  std::memcpy(out.data() + at, data, n * sizeof(T));
 }
 
 struct ByteReader {
@@ -188,16 +200,8 @@ ResultPacker& ResultPacker::operator=(ResultPacker&&) noexcept = default;
 
 PackedBlock ResultPacker::pack(std::size_t first, std::span<const ColumnResult> results) const {
   const Impl& m = *impl_;
-  for (std::size_t i = 0; i < results.size(); ++i) {
-    if (results[i].failed()) continue;
-    const ResultShape s = ResultShape::of(results[i]);
-    if (s.layers != m.shape.layers)
-      throw InputError(InputPlace{"", "level", {}, {}, static_cast<long>(first + i), {}},
-                       fmt::format("all columns of one file need the same number of levels ({} here, {} in the others)",
-                                   s.layers + 1, m.shape.layers + 1));
-    if (s.encode() != m.shape.encode())
-      throw InternalError(fmt::format("column {} has other bands or results than the first column of the file", first + i));
-  }
+  for (std::size_t i = 0; i < results.size(); ++i)
+    if (!results[i].failed()) m.shape.check(results[i], first + i, "");
   PackedBlock block;
   block.first = first;
   block.count = results.size();

@@ -31,7 +31,7 @@ struct ResultFileWriter::Impl {
   std::vector<netCDF::NcVar> vars;          // the per-column variables, in table order
   std::vector<const Variable*> described;   // their descriptions
   std::vector<std::size_t> lead_shape;
-  R sample_shape;                            // the sample without its values (bands, levels, options)
+  ResultShape shape;                         // what every computed result written must look like
   netCDF::NcVar error_var;                   // column_error: written only for failed columns
 };
 
@@ -66,40 +66,6 @@ std::vector<std::size_t> chunk_shape(const std::vector<std::size_t>& lead, std::
   }
   for (const std::string& d : v.dims) chunk.push_back(table.dim_size(d));
   return chunk;
-}
-
-// The shape facts a result must share with the sample to go into the same file.
-R shape_of(const R& sample) {
-  R s;
-  s.column.pressure_level_pa.resize(sample.column.level_count());
-  s.longwave.band_lower_cm1 = sample.longwave.band_lower_cm1;
-  s.longwave.band_upper_cm1 = sample.longwave.band_upper_cm1;
-  s.shortwave.flux_up.resize(sample.shortwave.flux_up.size());
-  s.shortwave.band_lower_cm1 = sample.shortwave.band_lower_cm1;
-  s.shortwave.band_upper_cm1 = sample.shortwave.band_upper_cm1;
-  if (sample.equilibrium) s.equilibrium.emplace();
-  s.experiments.resize(sample.experiments.size());
-  if (sample.attribution) {
-    s.attribution.emplace();
-    s.attribution->band_removal_w_m2.resize(sample.attribution->band_removal_w_m2.size());
-  }
-  return s;
-}
-
-void check_like(const R& shape, const R& r, std::size_t index, const std::filesystem::path& path) {
-  if (r.column.level_count() != shape.column.level_count())
-    throw InputError(InputPlace{path.string(), "level", {}, {}, static_cast<long>(index), {}},
-                     fmt::format("all columns of one file need the same number of levels ({} here, {} in the others)",
-                                 r.column.level_count(), shape.column.level_count()));
-  const bool same = r.longwave.band_lower_cm1 == shape.longwave.band_lower_cm1 &&
-                    r.longwave.band_upper_cm1 == shape.longwave.band_upper_cm1 &&
-                    r.has_shortwave() == shape.has_shortwave() && r.shortwave.band_lower_cm1 == shape.shortwave.band_lower_cm1 &&
-                    r.shortwave.band_upper_cm1 == shape.shortwave.band_upper_cm1 &&
-                    r.equilibrium.has_value() == shape.equilibrium.has_value() &&
-                    r.experiments.size() == shape.experiments.size() && r.attribution.has_value() == shape.attribution.has_value() &&
-                    (!r.attribution || r.attribution->band_removal_w_m2.size() == shape.attribution->band_removal_w_m2.size());
-  if (!same)
-    throw InternalError(fmt::format("column {} has other bands or results than the first column of the file", index));
 }
 
 // Characters of column_error per column (longer messages are cut).
@@ -174,8 +140,8 @@ ResultFileWriter::ResultFileWriter(const std::filesystem::path& path, const R& s
   if (axes.empty()) throw InternalError("a result file needs at least one leading axis");
   Impl& m = *impl_;
   m.path = path;
-  m.table = detail::describe_result(ResultShape::of(sample).sample(), info, axes);
-  m.sample_shape = shape_of(sample);
+  m.shape = ResultShape::of(sample);
+  m.table = detail::describe_result(m.shape.sample(), info, axes);
   for (const OutputAxis& a : axes) m.lead_shape.push_back(a.size);
   try {
     m.file.open(path.string(), netCDF::NcFile::replace, netCDF::NcFile::nc4);
@@ -221,8 +187,8 @@ ResultFileWriter ResultFileWriter::reopen(const std::filesystem::path& path, con
                                           std::span<const OutputAxis> axes) {
   auto m = std::make_unique<Impl>();
   m->path = path;
-  m->table = detail::describe_result(ResultShape::of(sample).sample(), info, axes);
-  m->sample_shape = shape_of(sample);
+  m->shape = ResultShape::of(sample);
+  m->table = detail::describe_result(m->shape.sample(), info, axes);
   for (const OutputAxis& a : axes) m->lead_shape.push_back(a.size);
   try {
     m->file.open(path.string(), netCDF::NcFile::write);
@@ -290,7 +256,7 @@ void write_error(ResultFileWriter::Impl& m, std::size_t flat, const std::string&
 void ResultFileWriter::write_block(std::size_t first, std::span<const R> results) {
   Impl& m = *impl_;
   for (std::size_t i = 0; i < results.size(); ++i)
-    if (!results[i].failed()) check_like(m.sample_shape, results[i], first + i, m.path);
+    if (!results[i].failed()) m.shape.check(results[i], first + i, m.path.string());
   const std::vector<detail::Hyperslab> slabs = detail::flat_range_slabs(m.lead_shape, first, results.size());
   std::vector<double> data;
   std::vector<signed char> bytes;

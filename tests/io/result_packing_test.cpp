@@ -94,8 +94,11 @@ TEST(ResultPacking, PackedBlocksWriteTheSameFileAsResults) {
   for (const auto& [name, values] : a) {
     ASSERT_TRUE(b.count(name)) << name;
     ASSERT_EQ(values.size(), b.at(name).size()) << name;
-    for (std::size_t k = 0; k < values.size(); ++k)
-      if (!(std::isnan(values[k]) && std::isnan(b.at(name)[k]))) EXPECT_EQ(values[k], b.at(name)[k]) << name << " " << k;
+    for (std::size_t k = 0; k < values.size(); ++k) {
+      if (!(std::isnan(values[k]) && std::isnan(b.at(name)[k]))) {
+        EXPECT_EQ(values[k], b.at(name)[k]) << name << " " << k;
+      }
+    }
   }
   EXPECT_TRUE(std::isnan(a.at("olr")[2])); // the failed column is missing
   EXPECT_EQ(a.at("olr")[4], 240.0 + 12.0);  // flux_up[0] of make_result

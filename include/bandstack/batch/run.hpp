@@ -76,7 +76,6 @@ struct ColumnSummary {
 
 struct RunOutcome {
   std::filesystem::path output_file;  // the file written
-  // One per column, in study order, when the run computed all of them itself (not resumed) and has
   // One line of the terminal summary per column, kept when the run computed every column itself and
   // has at most RunOptions::summary_columns columns; otherwise empty (the results are in the file).
   std::vector<ColumnSummary> summaries;

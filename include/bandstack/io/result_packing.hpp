@@ -27,6 +27,9 @@ struct ResultShape {
 
   // The shape of a computed (not failed) result.
   [[nodiscard]] static ResultShape of(const batch::ColumnResult& result);
+  // That a computed result has this shape: InputError (naming `file` and the flat column index)
+  // for another level count, InternalError for other bands or results.
+  void check(const batch::ColumnResult& result, std::size_t flat_index, const std::string& file) const;
   // A result of this shape with every value zero (what the file's variables are defined from).
   [[nodiscard]] batch::ColumnResult sample() const;
   // As numbers, and back (InputError if the numbers are not a shape).
