@@ -72,7 +72,13 @@ std::optional<ClassicHeader> read_classic_header(const std::filesystem::path& pa
   Cursor c{bytes, 4};
   const std::size_t count_width = version == 5 ? 8 : 4;
   const std::uint64_t numrecs = c.read(count_width);
-  const auto name = [&] { c.skip(padded(c.read(count_width))); };
+  // Names longer than netCDF's NC_MAX_NAME (256) are damage: the C++ interface copies names into
+  // buffers of that size (a fuzzed header overflowed one).
+  const auto name = [&] {
+    const std::uint64_t n = c.read(count_width);
+    if (n > 256) c.ok = false;
+    c.skip(padded(n));
+  };
   const auto list_length = [&](std::uint64_t tag) {
     const std::uint64_t found = c.read(4), n = c.read(count_width);
     if (found != tag && !(found == 0 && n == 0)) c.ok = false;
